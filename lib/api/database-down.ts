@@ -1,0 +1,11 @@
+const codes = new Set(["ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ER_CON_COUNT_ERROR", "EPIPE"]);
+
+/** True for connection-level failures of MariaDB (answered with 503), not for query errors. */
+export function isDatabaseDown(e: unknown): boolean {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: string }).code;
+    if (code && codes.has(code)) return true;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return false;
+}

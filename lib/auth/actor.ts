@@ -1,0 +1,52 @@
+import { eq } from "drizzle-orm";
+import { getServerSession } from "next-auth";
+import { headers } from "next/headers";
+import { db } from "@/db/client";
+import { getApiTokenByHash } from "@/db/queries/api-tokens";
+import { getUserById, type PublicUser } from "@/db/queries/users";
+import { apiTokens } from "@/db/schema";
+import { UnauthenticatedError } from "@/lib/errors";
+import { authOptions } from "./options";
+import { hashToken } from "./secrets";
+
+export interface Actor {
+  user: PublicUser;
+  via: "session" | "api-token";
+}
+
+export const API_TOKEN_PREFIX = "sortie_";
+
+/** Resolves who is calling: a personal API token in `Authorization: Bearer …`, else the session cookie. */
+export async function getActor(): Promise<Actor | null> {
+  const h = await headers();
+  const auth = h.get("authorization");
+  if (auth) {
+    const m = /^Bearer\s+(\S+)$/i.exec(auth);
+    if (!m) return null;
+    return actorFromApiToken(m[1]);
+  }
+  const session = await getServerSession(authOptions());
+  const id = (session?.user as { id?: number } | undefined)?.id;
+  if (typeof id !== "number") return null;
+  const user = await getUserById(id);
+  return user ? { user, via: "session" } : null;
+}
+
+async function actorFromApiToken(token: string): Promise<Actor | null> {
+  if (!token.startsWith(API_TOKEN_PREFIX) || token.length > 200) return null;
+  const row = await getApiTokenByHash(hashToken(token));
+  if (!row || row.revokedAt) return null;
+  const user = await getUserById(row.userId);
+  if (!user) return null;
+  // Last use is shown on the token page; a minute's precision is plenty, so skip most writes.
+  if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
+    await db().update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.id));
+  }
+  return { user, via: "api-token" };
+}
+
+export async function requireActor(): Promise<Actor> {
+  const actor = await getActor();
+  if (!actor) throw new UnauthenticatedError();
+  return actor;
+}

@@ -1,0 +1,55 @@
+import type { NextAuthOptions } from "next-auth";
+import CredentialsProvider from "next-auth/providers/credentials";
+import { getUserWithSecretByEmail } from "@/db/queries/users";
+import { audit } from "@/lib/audit";
+import { env } from "@/lib/env";
+import { signInSchema } from "@/lib/validations/auth";
+import { burnPasswordCheck, verifyPassword } from "./password";
+import { clientIp, loginBlocked, recordLoginAttempt } from "./rate-limit";
+
+export const SIGN_IN_RATE_LIMITED = "RateLimited";
+
+/** Built on demand so importing this module never reads settings (e.g. during `next build`). */
+export function authOptions(): NextAuthOptions {
+  const secure = env().APP_URL.startsWith("https://");
+  return {
+    secret: env().NEXTAUTH_SECRET,
+    session: { strategy: "jwt", maxAge: 14 * 24 * 3600 },
+    pages: { signIn: "/sign-in", error: "/sign-in" },
+    useSecureCookies: secure,
+    providers: [
+      CredentialsProvider({
+        id: "credentials",
+        name: "E-mail and password",
+        credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
+        async authorize(credentials, req) {
+          const parsed = signInSchema.safeParse(credentials ?? {});
+          if (!parsed.success) return null;
+          const { email, password } = parsed.data;
+          const ip = clientIp(req?.headers ?? {});
+          const limit = await loginBlocked(email, ip);
+          if (limit.blocked) throw new Error(SIGN_IN_RATE_LIMITED);
+          const user = await getUserWithSecretByEmail(email);
+          const ok = user ? await verifyPassword(password, user.passwordHash) : (await burnPasswordCheck(password), false);
+          await recordLoginAttempt(email, ip, ok);
+          if (!user || !ok) {
+            await audit({ action: "sign-in.failed", detail: { email }, ip });
+            return null;
+          }
+          await audit({ actorId: user.id, action: "sign-in", targetType: "user", targetId: user.id, ip });
+          return { id: String(user.id), email: user.email, name: user.name };
+        },
+      }),
+    ],
+    callbacks: {
+      jwt({ token, user }) {
+        if (user) token.uid = Number(user.id);
+        return token;
+      },
+      session({ session, token }) {
+        if (session.user && typeof token.uid === "number") (session.user as { id?: number }).id = token.uid;
+        return session;
+      },
+    },
+  };
+}

@@ -1,0 +1,106 @@
+/**
+ * `npm test`: throwaway MariaDB / S3 / SMTP on test ports, migrations, unit tests, a production
+ * build served on its own port, then integration and browser tests against it.
+ * Extra arguments go to vitest (e.g. `npm test -- tests/unit/auth`).
+ */
+import { spawn } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
+import { buildApp, startApp, type AppServer } from "./lib/app-server";
+import { ensureChromium } from "./lib/chromium";
+import { profile, projectRoot } from "./lib/profiles";
+import { onShutdown, startStack, type Stack } from "./lib/stack";
+import { log } from "./lib/util";
+
+let stack: Stack | undefined;
+let app: AppServer | undefined;
+
+interface VitestJson {
+  numPassedTests: number;
+  numFailedTests: number;
+  numPendingTests: number;
+  numTodoTests: number;
+  success: boolean;
+}
+
+const reportDir = path.join(projectRoot, ".data", "test-reports");
+
+/** Runs vitest as a child without blocking: S3 and SMTP are served from this very process. */
+async function vitest(projects: string[], env: Record<string, string>, extra: string[]): Promise<VitestJson> {
+  const name = projects.join("+");
+  const out = path.join(reportDir, `${name}.json`);
+  fs.mkdirSync(reportDir, { recursive: true });
+  log("sortie", `vitest: ${projects.join(", ")}`);
+  fs.rmSync(out, { force: true });
+  const child = spawn(
+    path.join(projectRoot, "node_modules", ".bin", "vitest"),
+    ["run", ...projects.flatMap((p) => ["--project", p]), "--reporter=default", "--reporter=json", `--outputFile.json=${out}`, "--passWithNoTests", ...extra],
+    { cwd: projectRoot, stdio: "inherit", env: { ...process.env, ...env } },
+  );
+  const status = await new Promise<number>((resolve) => child.on("exit", (code) => resolve(code ?? 1)));
+  if (!fs.existsSync(out)) {
+    return { numPassedTests: 0, numFailedTests: 1, numPendingTests: 0, numTodoTests: 0, success: false };
+  }
+  const report = JSON.parse(fs.readFileSync(out, "utf8")) as VitestJson;
+  if (status !== 0 && report.success) report.success = false;
+  return report;
+}
+
+async function main(): Promise<number> {
+  const t0 = Date.now();
+  const extra = process.argv.slice(2);
+  const p = profile("test");
+  onShutdown(async () => {
+    await app?.stop();
+    await stack?.stop();
+  });
+  ensureChromium();
+  stack = await startStack(p);
+  const env: Record<string, string> = {
+    ...stack.env,
+    NEXTAUTH_SECRET: randomBytes(32).toString("base64url"),
+    SORTIE_TEST_APP_URL: `http://localhost:${p.appPort}`,
+    // Tests sign in many times from one address; keep the limiter but give it room.
+    LOGIN_MAX_FAILURES: "8",
+  };
+  Object.assign(process.env, env);
+  const { runMigrations } = await import("@/db/migrate");
+  const { seedDemo } = await import("@/db/seed-demo");
+  const { closeDb } = await import("@/db/client");
+  await runMigrations();
+  await seedDemo();
+  await closeDb();
+  log("sortie", "test database migrated and seeded");
+
+  const results: VitestJson[] = [];
+  results.push(await vitest(["unit"], env, extra));
+
+  await buildApp(".next-test", env);
+  app = await startApp({ port: p.appPort, distDir: ".next-test", env, mode: "production", quiet: true });
+  log("app", `test server at ${app.url}`);
+  results.push(await vitest(["integration", "e2e"], env, extra));
+
+  await app.stop();
+  app = undefined;
+  await stack.stop();
+  stack = undefined;
+
+  const passed = results.reduce((n, r) => n + r.numPassedTests, 0);
+  const failed = results.reduce((n, r) => n + r.numFailedTests, 0);
+  const skipped = results.reduce((n, r) => n + r.numPendingTests + r.numTodoTests, 0);
+  const ok = results.every((r) => r.success) && failed === 0 && passed > 0;
+  log("sortie", `finished in ${((Date.now() - t0) / 1000).toFixed(0)} s`);
+  console.log(`${passed} passed, ${failed} failed, ${skipped} skipped`);
+  return ok ? 0 : 1;
+}
+
+main()
+  .then((code) => process.exit(code))
+  .catch(async (e) => {
+    console.error(`\n[sortie] test run aborted: ${(e as Error).stack ?? e}`);
+    await app?.stop();
+    await stack?.stop();
+    console.log("0 passed, 1 failed");
+    process.exit(1);
+  });

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { SignOutButton } from "@/components/sign-out-button";
 import { PageHeader } from "@/components/ui/page-header";
 import { getPageContext } from "@/lib/auth/page-context";
 import { CreateCrewForm } from "./create-crew-form";
@@ -12,7 +13,9 @@ export default async function SettingsPage({ searchParams }: { searchParams: Pro
   const { nocrew } = await searchParams;
   return (
     <>
-      <PageHeader title="Settings" lead="Your profile, crews and API tokens." />
+      <PageHeader title="Settings" lead={`Signed in as ${actor.user.email}.`}>
+        <SignOutButton className="btn-quiet no-underline" />
+      </PageHeader>
       {(nocrew || crews.length === 0) && (
         <p className="mb-6 rounded-md bg-signal-100 px-4 py-3 text-signal-700">
           You are not in any crew yet. Start one below, or open an invitation link from a crew lead.

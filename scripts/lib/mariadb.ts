@@ -12,6 +12,10 @@ export interface RunningService {
   stop(): Promise<void>;
 }
 
+// Debian puts mariadbd in /usr/sbin, which is not on every user's PATH.
+const extraPath = ["/usr/sbin", "/usr/bin", "/sbin"];
+process.env.PATH = [...new Set([...(process.env.PATH ?? "").split(":").filter(Boolean), ...extraPath])].join(":");
+
 function which(cmd: string): string | null {
   const r = spawnSync("sh", ["-c", `command -v ${cmd}`], { encoding: "utf8" });
   return r.status === 0 ? r.stdout.trim() : null;

@@ -27,10 +27,13 @@ async function main() {
   const { runMigrations } = await import("@/db/migrate");
   const { seedDemo } = await import("@/db/seed-demo");
   const { closeDb } = await import("@/db/client");
+  const { seedDemoRuns } = await import("./lib/seed-runs");
   await runMigrations();
   log("sortie", "database migrated");
   const seeded = await seedDemo();
   log("sortie", `demo crew ${seeded.created ? "created" : "already present"}`);
+  const runsSeeded = await seedDemoRuns();
+  log("sortie", `demo runs: ${runsSeeded.added} uploaded, ${runsSeeded.skipped} already there`);
   await closeDb();
 
   if (!dev) await buildApp(".next", env);

@@ -68,9 +68,12 @@ async function main(): Promise<number> {
   const { runMigrations } = await import("@/db/migrate");
   const { seedDemo } = await import("@/db/seed-demo");
   const { closeDb } = await import("@/db/client");
+  const { seedDemoRuns } = await import("./lib/seed-runs");
   await runMigrations();
   await seedDemo();
+  const runsSeeded = await seedDemoRuns();
   await closeDb();
+  log("sortie", `demo runs uploaded through the pipeline: ${runsSeeded.added}`);
   log("sortie", "test database migrated and seeded");
 
   const results: VitestJson[] = [];

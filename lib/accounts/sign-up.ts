@@ -3,6 +3,7 @@ import { getUserWithSecretByEmail } from "@/db/queries/users";
 import { crews, memberships, users } from "@/db/schema";
 import { audit } from "@/lib/audit";
 import { hashPassword } from "@/lib/auth/password";
+import { isDuplicateKey } from "@/lib/db-errors";
 import { ConflictError } from "@/lib/errors";
 import type { SignUpInput } from "@/lib/validations/auth";
 
@@ -17,9 +18,9 @@ export async function signUp(input: SignUpInput, ip?: string): Promise<{ userId:
     const [{ id: crewId }] = await tx.insert(crews).values({ name: input.crewName }).$returningId();
     await tx.insert(memberships).values({ crewId, userId, role: "lead" });
     return { userId, crewId };
-  }).catch((e: { code?: string }) => {
+  }).catch((e: unknown) => {
     // Two sign-ups racing for one address: the unique index decides.
-    if (e?.code === "ER_DUP_ENTRY") throw new ConflictError("An account with this e-mail already exists");
+    if (isDuplicateKey(e)) throw new ConflictError("An account with this e-mail already exists");
     throw e;
   });
   await audit({ crewId: result.crewId, actorId: result.userId, action: "user.sign-up", targetType: "user", targetId: result.userId, ip });

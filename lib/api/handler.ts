@@ -59,3 +59,25 @@ export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.
   if (!parsed.success) throw new NotFoundError();
   return parsed.data;
 }
+
+/** As readJson, but an empty body counts as `{}`. */
+export async function readOptionalJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
+  const text = await req.text();
+  let body: unknown = {};
+  if (text.trim()) {
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw new ValidationError("The request body must be JSON");
+    }
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw ValidationError.fromZod(parsed.error);
+  return parsed.data;
+}
+
+export function parseBody<T extends z.ZodType>(body: unknown, schema: T): z.infer<T> {
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw ValidationError.fromZod(parsed.error);
+  return parsed.data;
+}

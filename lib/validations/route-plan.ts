@@ -19,3 +19,11 @@ export const routePlanCreateSchema = z.object({
 });
 
 export type RoutePlanCreate = z.infer<typeof routePlanCreateSchema>;
+
+/** A route plan from an uploaded GPX file (its <rte>, else its <wpt> list). */
+export const routePlanFromUploadSchema = z.object({
+  uploadId: idSchema,
+  name: z.string().trim().min(1).max(120).optional(),
+  vehicleClass: z.enum(["ground", "air"]).default("ground"),
+  corridorM: z.number().positive().max(10_000).optional(),
+});

@@ -21,7 +21,7 @@ export default async function DashboardPage() {
     { done: o.buildCount > 0, text: "Record a build with its link sheet", href: "/builds", who: can(crew.role, "manageBuilds") },
     { done: o.routePlanCount > 0, text: "Add a route plan", href: "/routes", who: can(crew.role, "manageRoutePlans") },
     { done: o.memberCount > 1, text: "Invite your pilots and observers", href: "/crew", who: can(crew.role, "manageMembers") },
-    { done: o.runCount > 0, text: "Upload the log of a run", href: "/runs", who: can(crew.role, "uploadLog") },
+    { done: o.runCount > 0, text: "Upload the log of a run", href: "/runs/upload", who: can(crew.role, "uploadLog") },
   ].filter((s) => s.who);
   const open = steps.filter((s) => !s.done);
 

@@ -1,13 +1,14 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { listRoutePlans } from "@/db/queries/route-plans";
-import { apiRoute, readJson } from "@/lib/api/handler";
+import { apiRoute, parseBody, readJson } from "@/lib/api/handler";
 import { requireCrewPermission } from "@/lib/auth/access";
 import { requireActor } from "@/lib/auth/actor";
 import { crewForNewRecord } from "@/lib/crews/resolve-crew";
 import { createRoutePlan } from "@/lib/route-plans/create-route-plan";
 import { idSchema } from "@/lib/validations/crew";
-import { routePlanCreateSchema } from "@/lib/validations/route-plan";
+import { routePlanCreateSchema, routePlanFromUploadSchema } from "@/lib/validations/route-plan";
+import { routePlanFromUpload } from "@/lib/route-plans/route-plan-from-upload";
 
 export const GET = apiRoute(async (req) => {
   const actor = await requireActor();
@@ -17,9 +18,15 @@ export const GET = apiRoute(async (req) => {
   return { routePlans: await listRoutePlans(crewId) };
 });
 
+/** JSON waypoints, or `{uploadId}` naming an uploaded GPX file with a route or waypoints. */
 export const POST = apiRoute(async (req) => {
   const actor = await requireActor();
-  const { crewId: requested, ...input } = await readJson(req, routePlanCreateSchema);
+  const raw = await readJson(req, z.record(z.string(), z.unknown()));
+  if ("uploadId" in raw) {
+    const { uploadId, ...opts } = parseBody(raw, routePlanFromUploadSchema);
+    return NextResponse.json({ id: await routePlanFromUpload(actor, uploadId, opts) }, { status: 201 });
+  }
+  const { crewId: requested, ...input } = parseBody(raw, routePlanCreateSchema);
   const crewId = await crewForNewRecord(actor, requested);
   const id = await createRoutePlan(actor, crewId, input, "json");
   return NextResponse.json({ id }, { status: 201 });

@@ -1,0 +1,51 @@
+import { once } from "node:events";
+import { PassThrough } from "node:stream";
+import type { PoolConnection } from "mysql2/promise";
+import type { SampleBatch } from "@/lib/parsers/types";
+import { batchToTsv } from "./sample-tsv";
+
+// snake_case names of the samples table, in TSV_FIELDS order (db/schema/runs.ts).
+const LOAD_COLUMNS = [
+  "t_s", "lat", "lon", "alt_m", "speed_mps", "heading_deg", "sats", "hdop", "fix_type", "rssi_dbm", "rssi_pct",
+  "lq_pct", "snr_db", "voltage_v", "current_a", "used_mah", "mode_index", "armed", "failsafe",
+];
+
+/**
+ * Streams samples into MariaDB with one LOAD DATA LOCAL INFILE on `conn` (inside the caller's
+ * transaction): ~2× the rate of batched INSERTs and no SQL text per row. Returns a sink for
+ * the parser and a `finish()` that ends the stream and waits for the statement.
+ */
+export function startSampleLoad(conn: PoolConnection, runId: number) {
+  const stream = new PassThrough({ highWaterMark: 4 * 1024 * 1024 });
+  let seq = 0;
+  const sql =
+    "LOAD DATA LOCAL INFILE 'sortie-samples' INTO TABLE samples CHARACTER SET utf8mb4 " +
+    "FIELDS TERMINATED BY '\\t' LINES TERMINATED BY '\\n' " +
+    `(run_id, seq, ${LOAD_COLUMNS.join(", ")}, @rc) SET rc = UNHEX(NULLIF(@rc, ''))`;
+  const done = conn.query({ sql, infileStreamFactory: () => stream }).then(([r]) => (r as { affectedRows: number }).affectedRows);
+  // Keep the rejection observed even if the parser fails first; finish() re-throws it.
+  done.catch(() => {});
+
+  return {
+    async write(batch: SampleBatch): Promise<void> {
+      const buf = batchToTsv(runId, seq, batch);
+      seq += batch.length;
+      if (!stream.write(buf)) await Promise.race([once(stream, "drain"), done.then(() => {})]);
+    },
+    async finish(): Promise<number> {
+      stream.end();
+      return done;
+    },
+    /**
+     * Ends the stream cleanly and waits for the statement: destroying it instead leaves mysql2's
+     * LOAD DATA waiting for bytes that never come. The caller rolls the rows back.
+     */
+    async abort(): Promise<void> {
+      if (!stream.writableEnded) stream.end();
+      await done.catch(() => {});
+    },
+    get written() {
+      return seq;
+    },
+  };
+}

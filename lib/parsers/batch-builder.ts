@@ -1,0 +1,77 @@
+import { RC_CHANNELS, sampleFields, type SampleBatch, type SampleField } from "./types";
+
+export const DEFAULT_BATCH_SIZE = 8192;
+
+/**
+ * Collects samples one at a time into fixed-size typed arrays and hands out full batches.
+ * Each `begin()` starts a sample with every field NaN; set fields, then `commit()`.
+ */
+export class BatchBuilder {
+  private batch: SampleBatch;
+  private i = -1;
+  readonly present = new Set<SampleField>();
+  hasRc = false;
+
+  constructor(
+    private readonly withRc: boolean,
+    private readonly size = DEFAULT_BATCH_SIZE,
+  ) {
+    this.batch = this.fresh();
+  }
+
+  private fresh(): SampleBatch {
+    const columns = {} as Record<SampleField, Float64Array>;
+    for (const f of sampleFields) columns[f] = new Float64Array(this.size).fill(NaN);
+    return {
+      length: 0,
+      columns,
+      rc: this.withRc ? new Uint16Array(this.size * RC_CHANNELS) : null,
+      segmentStart: new Uint8Array(this.size),
+      sourceLine: new Uint32Array(this.size),
+    };
+  }
+
+  /** Starts a new sample; returns false when the batch is full (call `take()` first). */
+  get full(): boolean {
+    return this.batch.length >= this.size;
+  }
+
+  begin(sourceLine: number, segmentStart = false): void {
+    this.i = this.batch.length;
+    this.batch.sourceLine[this.i] = sourceLine;
+    this.batch.segmentStart[this.i] = segmentStart ? 1 : 0;
+  }
+
+  set(field: SampleField, value: number): void {
+    this.batch.columns[field][this.i] = value;
+    if (!Number.isNaN(value)) this.present.add(field);
+  }
+
+  setRc(channel1Based: number, us: number): void {
+    if (!this.batch.rc) return;
+    this.batch.rc[this.i * RC_CHANNELS + channel1Based - 1] = us;
+    this.hasRc = true;
+  }
+
+  commit(): void {
+    this.batch.length = this.i + 1;
+  }
+
+  /** Returns the filled part of the current batch (trimmed views) and starts a new one. */
+  take(): SampleBatch | null {
+    const b = this.batch;
+    if (b.length === 0) return null;
+    this.batch = this.fresh();
+    if (b.length === this.size) return b;
+    const n = b.length;
+    const columns = {} as Record<SampleField, Float64Array>;
+    for (const f of sampleFields) columns[f] = b.columns[f].subarray(0, n);
+    return {
+      length: n,
+      columns,
+      rc: b.rc ? b.rc.subarray(0, n * RC_CHANNELS) : null,
+      segmentStart: b.segmentStart.subarray(0, n),
+      sourceLine: b.sourceLine.subarray(0, n),
+    };
+  }
+}

@@ -1,0 +1,142 @@
+import type { Element } from "@xmldom/xmldom";
+import { BatchBuilder, DEFAULT_BATCH_SIZE } from "./batch-builder";
+import { childElements, childText, parseGpxTime, pointCoordinates, readGpxDocument } from "./gpx-dom";
+import { readPointFields } from "./gpx-point";
+import { readAllText } from "./read-text";
+import { ParseError, sampleFields, type BatchSink, type ByteSource, type ParseSummary } from "./types";
+import { WarningLog } from "./warnings";
+
+export { parseGpxRoutePlan, type GpxRoutePlan } from "./gpx-route-plan";
+
+/** Largest GPX accepted: the whole document is held in memory as text and as a DOM. */
+export const DEFAULT_GPX_MAX_BYTES = 256 * 1024 * 1024;
+
+export interface GpxParseOptions {
+  onBatch: BatchSink;
+  /** Samples per batch (default 8192). */
+  batchSize?: number;
+  /** Input size limit in bytes (default 256 MB). */
+  maxBytes?: number;
+  /**
+   * When true, a file without track points is read from its routes (each <rte> a segment) or,
+   * failing that, its waypoint list, instead of throwing. Default false.
+   */
+  fallbackToRoute?: boolean;
+}
+
+/**
+ * Parses a GPX 1.0 or 1.1 track into the normalised sample stream, one sample per <trkpt>.
+ *
+ * Every <trkseg> (and so every <trk>) starts a new segment: its first sample after the first one
+ * of the log gets `segmentStart = 1`, a reception gap that is never bridged. `tS` is seconds since
+ * the first time in the log (fractional seconds and zone offsets kept). A point without <time>
+ * keeps its position and takes the previous sample's `tS` (never interpolated; warning
+ * "missing-time"); when no point has a time, `tS` is the sample index in seconds ("no-times").
+ * Times that go backwards are kept ("time-backwards"). Points with missing or out-of-range lat/lon
+ * are skipped ("out-of-range"). Per point: <ele> → altM (m), <sat> → sats, <hdop> → hdop,
+ * <fix> → fixType (see GPX_FIX_TYPES), GPX 1.0 <speed> (m/s) → speedMps, <course> (°) → headingDeg.
+ * `sourceLine` holds the 1-based number of the point in the file. Cost O(points); the whole text
+ * and DOM are held in memory.
+ *
+ * @param source the file as byte or text chunks (UTF-8)
+ * @param opts batch sink, batch size, size limit, route fallback
+ * @returns the summary; samples went to `opts.onBatch` in order
+ * @throws {ParseError} when larger than `maxBytes`, not well-formed XML (with line and column), the
+ *   root is not <gpx>, there are no track points (a route/waypoint-only file gets its own message),
+ *   or no point has valid coordinates
+ * @example
+ * // georust/gpx tests/fixtures/garmin-activity.gpx: one track of 988 points
+ * const summary = await parseGpx(source, { onBatch: (batch) => store(batch) });
+ * summary.sampleCount; // => 988
+ */
+export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promise<ParseSummary> {
+  const text = await readAllText(source, opts.maxBytes ?? DEFAULT_GPX_MAX_BYTES, "GPX");
+  const warnings = new WarningLog();
+  const { root, ns } = readGpxDocument(text, warnings);
+  const segments = pointSegments(root, ns, opts.fallbackToRoute ?? false);
+  const timeOf = (p: Element) => parseGpxTime(childText(p, "time", ns));
+  const hasTimes = segments.some((seg) => seg.some((p) => pointCoordinates(p) !== null && !Number.isNaN(timeOf(p))));
+
+  const b = new BatchBuilder(false, opts.batchSize ?? DEFAULT_BATCH_SIZE);
+  let pointNo = 0;
+  let count = 0;
+  let t0 = NaN; // epoch ms of the first time in the log
+  let prevMs = NaN;
+  let prevTs = 0;
+  for (const seg of segments) {
+    let startsSegment = count > 0;
+    for (const p of seg) {
+      pointNo++;
+      const c = pointCoordinates(p);
+      if (!c) {
+        warnings.add("out-of-range", `Points with a missing or out-of-range latitude/longitude were skipped (first: point ${pointNo})`, p.lineNumber);
+        continue;
+      }
+      const timeText = childText(p, "time", ns);
+      const ms = parseGpxTime(timeText);
+      if (timeText && Number.isNaN(ms)) {
+        warnings.add("bad-value", `Some <time> values are not ISO 8601 times and were treated as missing (first: point ${pointNo}, ${JSON.stringify(timeText.slice(0, 40))})`, p.lineNumber, "time");
+      }
+      let tS: number;
+      if (!hasTimes) tS = count;
+      else if (Number.isNaN(ms)) {
+        warnings.add("missing-time", `Points without a time were given the time of the sample before them, not interpolated (first: point ${pointNo})`, p.lineNumber);
+        tS = prevTs;
+      } else {
+        if (Number.isNaN(t0)) t0 = ms;
+        if (ms < prevMs) warnings.add("time-backwards", `The time goes backwards at some points; they were kept in file order (first: point ${pointNo})`, p.lineNumber);
+        prevMs = ms;
+        tS = prevTs = (ms - t0) / 1000;
+      }
+      if (b.full) await opts.onBatch(b.take()!);
+      b.begin(pointNo, startsSegment);
+      startsSegment = false;
+      b.set("tS", tS);
+      b.set("lat", c.lat);
+      b.set("lon", c.lon);
+      readPointFields(p, ns, b, warnings, pointNo);
+      b.commit();
+      count++;
+    }
+  }
+  if (count === 0) {
+    throw new ParseError("The GPX file contains no track points with valid coordinates", undefined, undefined, "lat within ±90 and lon within ±180");
+  }
+  if (!hasTimes) warnings.add("no-times", "The track has no timestamps; samples are spaced one second apart");
+  const last = b.take();
+  if (last) await opts.onBatch(last);
+  return {
+    format: "gpx",
+    sampleCount: count,
+    startedAt: Number.isNaN(t0) ? null : new Date(Math.floor(t0)),
+    modeNames: [],
+    warnings: warnings.list(),
+    fieldsPresent: sampleFields.filter((f) => b.present.has(f)),
+    hasRc: false,
+  };
+}
+
+/** The point lists to read, one per segment: every <trkseg>, or the route/waypoint fallback. */
+function pointSegments(root: Element, ns: string | null, fallbackToRoute: boolean): Element[][] {
+  const segments: Element[][] = [];
+  for (const trk of childElements(root, "trk", ns)) {
+    for (const seg of childElements(trk, "trkseg", ns)) segments.push(childElements(seg, "trkpt", ns));
+  }
+  if (segments.some((s) => s.length > 0)) return segments;
+
+  const routes = childElements(root, "rte", ns)
+    .map((rte) => childElements(rte, "rtept", ns))
+    .filter((pts) => pts.length > 0);
+  const waypoints = childElements(root, "wpt", ns);
+  if (fallbackToRoute && routes.length > 0) return routes;
+  if (fallbackToRoute && waypoints.length > 0) return [waypoints];
+  if (routes.length > 0 || waypoints.length > 0) {
+    throw new ParseError(
+      "The GPX file has no track points; a GPX route or waypoint list can be added as a route plan instead",
+      undefined,
+      undefined,
+      "at least one <trkpt>",
+    );
+  }
+  throw new ParseError("The GPX file contains no track points", undefined, undefined, "at least one <trkpt>");
+}

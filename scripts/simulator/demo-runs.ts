@@ -1,0 +1,25 @@
+import { demoCrew } from "@/db/demo-crew";
+import { simulateRun } from "./simulate-run";
+import { toCsv, toGpx, toNmea } from "./write-logs";
+
+export interface DemoLog {
+  fileName: string;
+  contentType: string;
+  body: string;
+  build: string;
+  routePlan: string;
+  note: string;
+}
+
+/** The demo crew's logs: one per format, all over the invented Flats loop. */
+export function demoLogs(): DemoLog[] {
+  const loop = demoCrew.routePlans[0];
+  const mudlark = simulateRun({ seed: 11, waypoints: loop.waypoints, startSoc: 0.35, resistanceOhm: 0.06 });
+  const sandpiper = simulateRun({ seed: 23, waypoints: loop.waypoints, lossAt: 2, fadeAt: [0.3, 0.34] });
+  const heron = simulateRun({ seed: 37, waypoints: loop.waypoints, speedMps: 4, lossAt: 2, fadeAt: [2, 2] });
+  return [
+    { fileName: "mudlark-flats-loop.csv", contentType: "text/csv", body: toCsv(mudlark), build: "Mudlark", routePlan: "Flats loop", note: "Behind the dune the link faded; lost it near the channel marker." },
+    { fileName: "sandpiper-flats-loop.gpx", contentType: "application/gpx+xml", body: toGpx(sandpiper, new Date("2026-11-14T10:40:00Z"), "Sandpiper flats loop"), build: "Sandpiper", routePlan: "Flats loop", note: "Track from the rover's GPS." },
+    { fileName: "heron-gps.nmea", contentType: "text/plain", body: toNmea(heron, new Date("2026-11-14T11:15:00Z")), build: "Heron", routePlan: "Flats loop", note: "Raw GPS serial log." },
+  ];
+}

@@ -7,7 +7,8 @@ export function formatBytes(n: number): string {
 
 export function formatDuration(s: number | null | undefined): string {
   if (s == null || !Number.isFinite(s)) return "—";
-  const m = Math.floor(s / 60);
-  const sec = Math.round(s - m * 60);
+  const total = Math.round(s);
+  const m = Math.floor(total / 60);
+  const sec = total - m * 60;
   return m ? `${m} min ${sec} s` : `${sec} s`;
 }

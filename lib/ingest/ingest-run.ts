@@ -50,6 +50,8 @@ export async function ingestRun(runId: number): Promise<void> {
     const body = await readObject(upload.objectKey);
     const { head, source } = await peek(countingSource(body, (n) => ((bytes += n), reportProgress())));
     const format = detectFormat(head, upload.fileName);
+    // Known before parsing, so a CSV that fails still offers its column map for correction.
+    await db().update(runs).set({ format }).where(eq(runs.id, runId));
     const columnMap = format === "csv" && run.columnMap ? columnMapSchema.parse(run.columnMap) : undefined;
 
     await conn.beginTransaction();

@@ -2,7 +2,7 @@ import { once } from "node:events";
 import { PassThrough } from "node:stream";
 import type { PoolConnection } from "mysql2/promise";
 import type { SampleBatch } from "@/lib/parsers/types";
-import { batchToTsv } from "./sample-tsv";
+import { TsvEncoder } from "./tsv-worker";
 
 // snake_case names of the samples table, in TSV_FIELDS order (db/schema/runs.ts).
 const LOAD_COLUMNS = [
@@ -25,14 +25,29 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
   const done = conn.query({ sql, infileStreamFactory: () => stream }).then(([r]) => (r as { affectedRows: number }).affectedRows);
   // Keep the rejection observed even if the parser fails first; finish() re-throws it.
   done.catch(() => {});
+  const encoder = new TsvEncoder(runId);
+  // Batches being encoded, oldest first; a few in flight keep both cores busy.
+  const inFlight: Promise<Buffer>[] = [];
+  const MAX_IN_FLIGHT = 3;
+  const flushOne = async () => {
+    const buf = await inFlight.shift()!;
+    if (!stream.write(buf)) await Promise.race([once(stream, "drain"), done.then(() => {})]);
+  };
 
   return {
     async write(batch: SampleBatch): Promise<void> {
-      const buf = batchToTsv(runId, seq, batch);
+      const p = encoder.encode(seq, batch);
+      p.catch(() => {});
+      inFlight.push(p);
       seq += batch.length;
-      if (!stream.write(buf)) await Promise.race([once(stream, "drain"), done.then(() => {})]);
+      while (inFlight.length >= MAX_IN_FLIGHT) await flushOne();
     },
     async finish(): Promise<number> {
+      try {
+        while (inFlight.length) await flushOne();
+      } finally {
+        await encoder.close();
+      }
       stream.end();
       return done;
     },
@@ -41,6 +56,8 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
      * LOAD DATA waiting for bytes that never come. The caller rolls the rows back.
      */
     async abort(): Promise<void> {
+      inFlight.length = 0;
+      await encoder.close();
       if (!stream.writableEnded) stream.end();
       await done.catch(() => {});
     },

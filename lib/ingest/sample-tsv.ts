@@ -1,4 +1,5 @@
 import { RC_CHANNELS, sampleFields, type SampleBatch } from "@/lib/parsers/types";
+import { encodeRows } from "./encode-rows";
 
 /**
  * Column order of the TSV stream fed to LOAD DATA; must match LOAD_COLUMNS in load-samples.ts.
@@ -6,43 +7,25 @@ import { RC_CHANNELS, sampleFields, type SampleBatch } from "@/lib/parsers/types
  */
 export const TSV_FIELDS = sampleFields;
 
-const booleanFields = new Set(["armed", "failsafe"]);
-const integerFields = new Set(["sats", "fixType", "modeIndex"]);
+// 0 = plain number, 1 = 0/1 flag, 2 = integer.
+const kinds = TSV_FIELDS.map((f) => (f === "armed" || f === "failsafe" ? 1 : f === "sats" || f === "fixType" || f === "modeIndex" ? 2 : 0));
 
-function cell(field: string, v: number): string {
-  if (Number.isNaN(v) || !Number.isFinite(v)) return "\\N";
-  if (booleanFields.has(field)) return v ? "1" : "0";
-  if (integerFields.has(field)) return String(Math.round(v));
-  return String(v);
-}
+/** Kind of each TSV field for encodeRows: 0 = number, 1 = 0/1 flag, 2 = integer. */
+export const TSV_KINDS = kinds;
 
-const hex = Array.from({ length: 256 }, (_, i) => i.toString(16).padStart(2, "0"));
-
-function rcHex(rc: Uint16Array, row: number): string {
-  let s = "";
-  let any = false;
-  for (let c = 0; c < RC_CHANNELS; c++) {
-    const v = rc[row * RC_CHANNELS + c];
-    if (v) any = true;
-    s += hex[v & 0xff] + hex[v >> 8]; // little-endian uint16
-  }
-  return any ? s : "\\N";
+/** The columns of a batch in TSV order. */
+export function batchArrays(batch: SampleBatch): Float64Array[] {
+  return TSV_FIELDS.map((f) => batch.columns[f]);
 }
 
 /**
- * Encodes one batch as TSV rows `run_id, seq, <fields…>, rc_hex`, starting at sequence `firstSeq`.
+ * Encodes one batch as TSV rows `run_id, seq, <fields…>, rc_hex`, starting at sequence `firstSeq`
+ * (on this thread; ingest runs the same encoder on a worker thread, see tsv-worker.ts).
  * @example batchToTsv(7, 0, batch) // → Buffer("7\t0\t0\t53.47\t-3.05\t…\n…")
  */
 export function batchToTsv(runId: number, firstSeq: number, batch: SampleBatch): Buffer {
-  const lines: string[] = new Array(batch.length);
-  const cols = TSV_FIELDS.map((f) => [f, batch.columns[f]] as const);
-  for (let i = 0; i < batch.length; i++) {
-    let line = `${runId}\t${firstSeq + i}`;
-    for (const [f, arr] of cols) line += "\t" + cell(f, arr[i]);
-    line += "\t" + (batch.rc ? rcHex(batch.rc, i) : "\\N");
-    lines[i] = line;
-  }
-  return Buffer.from(lines.join("\n") + "\n", "utf8");
+  const bytes = encodeRows(runId, firstSeq, batch.length, batchArrays(batch), kinds, batch.rc, RC_CHANNELS);
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
 /** Decodes the packed RC column read back from MariaDB into 18 µs values (0 = absent). */

@@ -10,6 +10,7 @@ export class BatchBuilder {
   private batch: SampleBatch;
   private i = -1;
   readonly present = new Set<SampleField>();
+  private readonly seen: Partial<Record<SampleField, boolean>> = {};
   hasRc = false;
 
   constructor(
@@ -44,7 +45,11 @@ export class BatchBuilder {
 
   set(field: SampleField, value: number): void {
     this.batch.columns[field][this.i] = value;
-    if (!Number.isNaN(value)) this.present.add(field);
+    // Checked per cell on the hot path: a plain flag first, the Set only once per field.
+    if (value === value && !this.seen[field]) {
+      this.seen[field] = true;
+      this.present.add(field);
+    }
   }
 
   setRc(channel1Based: number, us: number): void {

@@ -36,6 +36,10 @@ export class RecordSplitter {
    */
   push(text: string): string[] {
     this.buf += text;
+    if (!this.inQuotes && this.newline !== "\r") {
+      const plain = this.pushPlain();
+      if (plain) return plain;
+    }
     const blocks: string[] = [];
     let cut = 0;
     const n = this.buf.length;
@@ -92,6 +96,53 @@ export class RecordSplitter {
     this.buf = this.buf.slice(keep);
     this.pos = i - keep;
     this.lastEnd -= keep;
+    return blocks;
+  }
+
+  /**
+   * Fast path for text without quotes and with only the file's own line breaks (the usual case
+   * for telemetry): records end at line breaks, found with indexOf instead of a per-character
+   * scan. Returns null when the pending text needs the full scan.
+   */
+  private pushPlain(): string[] | null {
+    const buf = this.buf;
+    const from = this.lastEnd;
+    if (buf.indexOf('"', from) !== -1) return null;
+    const crlf = this.newline === "\r\n";
+    if (!crlf && buf.indexOf("\r", from) !== -1) return null;
+    const blocks: string[] = [];
+    let cut = 0;
+    let lineStart = from;
+    let lastEnd = from;
+    let crCount = 0;
+    let lines = 0;
+    if (crlf) for (let k = buf.indexOf("\r", from); k !== -1; k = buf.indexOf("\r", k + 1)) crCount++;
+    for (let k = buf.indexOf("\n", from); k !== -1; k = buf.indexOf("\n", k + 1)) {
+      if (crlf && buf.charCodeAt(k - 1) !== 13) return null;
+      if (k - lineStart - (crlf ? 1 : 0) > MAX_LINE_CHARS) return null; // let the full scan report it
+      lines++;
+      lineStart = k + 1;
+      lastEnd = k + 1;
+      if (lastEnd - cut >= BLOCK_CHARS) {
+        blocks.push(buf.slice(cut, lastEnd));
+        cut = lastEnd;
+      }
+    }
+    if (crlf && crCount !== lines + (buf.endsWith("\r") ? 1 : 0)) return null;
+    if (buf.length - lastEnd > MAX_LINE_CHARS) {
+      throw new ParseError("This line is longer than 1 MB; this is not a CSV telemetry log", this.line + lines, undefined, "lines of at most 1 MB");
+    }
+    if (lastEnd > cut) blocks.push(buf.slice(cut, lastEnd));
+    if (lines > 0) {
+      this.line += lines;
+      this.recordLine = this.line;
+      this.lineLength = 0;
+      this.prev = "\n";
+      this.atFieldStart = true;
+    }
+    this.buf = buf.slice(lastEnd);
+    this.pos = 0;
+    this.lastEnd = 0;
     return blocks;
   }
 

@@ -23,6 +23,16 @@ const SPECIAL = /^([+-]?)(nan|inf|infinity)$/i;
  * @example parseNumber("12,5", ",") // 12.5
  */
 export function parseNumber(text: string, decimal: "." | ","): number | null {
+  // Fast path for the common case (plain dot-decimal numbers): Number() accepts the same forms as
+  // DOT_NUMBER except hex/octal/binary prefixes ("0x…", letter at index 1), blank text (→ 0) and
+  // "Infinity" (not finite), which fall through to the full check below.
+  if (decimal === ".") {
+    const c1 = text.charCodeAt(1) | 32;
+    if (c1 !== 120 && c1 !== 111 && c1 !== 98) {
+      const v = Number(text);
+      if (v - v === 0 && (v !== 0 || text.trim() !== "")) return v;
+    }
+  }
   const s = text.trim();
   if (decimal === "." ? DOT_NUMBER.test(s) : COMMA_NUMBER.test(s)) {
     return Number(decimal === "," ? s.replace(",", ".") : s);

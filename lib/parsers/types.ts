@@ -12,7 +12,7 @@ export const sampleFields = [
   "headingDeg", // course over ground, degrees true 0–360
   "sats", // satellites used
   "hdop", // horizontal dilution of precision
-  "fixType", // 0 no fix, 1 GPS, 2 DGPS, 3 3D (or the log's own code when it has one)
+  "fixType", // the source's fix code, 0 = no fix always: GPX none/2d/3d/dgps/pps → 0/2/3/2/3, NMEA GGA quality 0–8, CSV as logged
   "rssiDbm", // received signal strength, dBm
   "rssiPct", // received signal strength, 0–100 %
   "lqPct", // link quality, share of packets received, 0–100 %

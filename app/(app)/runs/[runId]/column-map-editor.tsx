@@ -83,7 +83,8 @@ export function ColumnMapEditor({ runId, crewId, current }: ColumnMapEditorProps
       <div className="mt-3 divide-y divide-rule rounded-md border border-rule">
         {columns.map((c, i) => {
           const spec = csvFieldSpec(c.field as CsvField);
-          const conf = csv.detected.confidence[c.header];
+          const detectedField = csv.detected.map.columns.find((d) => d.header === c.header)?.field ?? "ignore";
+          const conf = detectedField === c.field ? csv.detected.confidence[c.header] : undefined;
           const values = csv.rows.slice(0, 3).map((r) => r[i] ?? "");
           return (
             <div key={c.header + i} className="grid gap-2 p-3 sm:grid-cols-[minmax(0,1.2fr)_minmax(0,1.4fr)_minmax(0,1fr)_minmax(0,1fr)] sm:items-center">
@@ -127,7 +128,7 @@ export function ColumnMapEditor({ runId, crewId, current }: ColumnMapEditorProps
               ) : (
                 <span className="text-sm text-ink-soft">{spec.units[0] ? unitLabels[spec.units[0]] : ""}</span>
               )}
-              <span className="text-sm text-ink-soft">{conf === undefined ? "" : conf >= 0.8 ? "sure" : conf >= 0.5 ? "likely — check" : "guess — check"}</span>
+              <span className="text-sm text-ink-soft">{conf === undefined ? "set by hand" : conf >= 0.8 ? "sure" : conf >= 0.5 ? "likely — check" : "guess — check"}</span>
             </div>
           );
         })}

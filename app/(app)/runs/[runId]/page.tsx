@@ -60,7 +60,7 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
           <h2 className="font-semibold text-act">This log could not be read</h2>
           <p className="figures mt-1 text-sm">{run.error}</p>
           <p className="mt-2 text-sm text-ink-soft">
-            The original file is kept. Download it to check, or correct the column map below and re-parse.
+            The original file is kept. Download it to check{run.format === "csv" ? ", or correct the column map below and re-parse" : ""}.
           </p>
         </section>
       )}
@@ -93,7 +93,7 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
           </ul>
         </section>
       )}
-      {(run.format === "csv" || (run.status === "failed" && !run.format)) && mayEdit && (
+      {run.format === "csv" && mayEdit && (
         <section className="panel mt-6" aria-labelledby="column-map">
           <h2 id="column-map" className="text-lg font-semibold">
             Column map

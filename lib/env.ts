@@ -20,6 +20,9 @@ const envSchema = z.object({
   SMTP_URL: z.string().regex(/^smtps?:\/\//, "must start with smtp:// or smtps://").default("smtp://127.0.0.1:1025"),
   MAIL_FROM: z.string().min(3).default("Sortie <no-reply@sortie.local>"),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(2 * 1024 * 1024 * 1024),
+  /** Files from this size go up in parts (S3 multipart); parts are at least 5 MiB, as S3 requires. */
+  UPLOAD_MULTIPART_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
+  UPLOAD_PART_BYTES: z.coerce.number().int().min(5 * 1024 * 1024).default(64 * 1024 * 1024),
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(8),
   LOGIN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
 });

@@ -63,6 +63,9 @@ async function main(): Promise<number> {
     SORTIE_TEST_APP_URL: `http://localhost:${p.appPort}`,
     // Tests sign in many times from one address; keep the limiter but give it room.
     LOGIN_MAX_FAILURES: "8",
+    // Exercise multipart uploads with small files.
+    UPLOAD_MULTIPART_BYTES: String(8 * 1024 * 1024),
+    UPLOAD_PART_BYTES: String(5 * 1024 * 1024),
   };
   Object.assign(process.env, env);
   const { runMigrations } = await import("@/db/migrate");

@@ -17,9 +17,6 @@ import { startIngest } from "./ingest-queue";
 import { uploadObjectKey } from "./object-key";
 import { resolveColumnMap } from "./resolve-column-map";
 
-/** Files this large go up in parts, so a dropped connection costs one part, not the file. */
-export const MULTIPART_THRESHOLD = 200 * 1024 * 1024;
-export const PART_SIZE = 64 * 1024 * 1024;
 
 function megabytes(n: number): string {
   return `${(n / 1024 / 1024).toFixed(n < 10 * 1024 * 1024 ? 1 : 0)} MB`;
@@ -39,7 +36,9 @@ export async function createUpload(actor: Actor, crewId: number, input: Omit<Upl
   if (input.routePlanId) await requireRecordPermission(actor, () => getRoutePlan(input.routePlanId!), "read", "Route plan");
   const objectKey = uploadObjectKey(crewId, input.fileName);
   const contentType = input.contentType || "application/octet-stream";
-  const multipart = input.size >= MULTIPART_THRESHOLD ? await startMultipart(objectKey, contentType, Math.ceil(input.size / PART_SIZE)) : null;
+  // Large files go up in parts, so a dropped connection at the field costs one part, not the file.
+  const partSize = env().UPLOAD_PART_BYTES;
+  const multipart = input.size >= env().UPLOAD_MULTIPART_BYTES ? await startMultipart(objectKey, contentType, Math.ceil(input.size / partSize)) : null;
   const [{ id }] = await db()
     .insert(uploads)
     .values({
@@ -56,7 +55,7 @@ export async function createUpload(actor: Actor, crewId: number, input: Omit<Upl
     })
     .$returningId();
   if (multipart) {
-    return { uploadId: id, contentType, multipart: { partSize: PART_SIZE, parts: multipart.urls.map((url, i) => ({ partNumber: i + 1, url })) } };
+    return { uploadId: id, contentType, multipart: { partSize, parts: multipart.urls.map((url, i) => ({ partNumber: i + 1, url })) } };
   }
   return { uploadId: id, contentType, putUrl: await presignPut(objectKey, contentType) };
 }

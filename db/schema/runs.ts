@@ -1,5 +1,5 @@
 import {
-  boolean, double, float, index, int, json, mysqlEnum, mysqlTable, primaryKey, smallint, text, tinyint, varbinary, varchar,
+  boolean, double, float, index, int, json, mysqlEnum, mysqlTable, primaryKey, smallint, text, tinyint, uniqueIndex, varbinary, varchar,
 } from "drizzle-orm/mysql-core";
 import { builds } from "./builds";
 import { crews } from "./crews";
@@ -57,7 +57,8 @@ export const runs = mysqlTable(
     index("runs_crew_created_idx").on(t.crewId, t.createdAt),
     index("runs_crew_build_idx").on(t.crewId, t.buildId),
     index("runs_crew_verdict_idx").on(t.crewId, t.verdict),
-    index("runs_upload_idx").on(t.uploadId),
+    // One run per upload: a second "complete" of the same upload can never make another.
+    uniqueIndex("runs_upload_uq").on(t.uploadId),
   ],
 );
 

@@ -1,6 +1,6 @@
 import type { z } from "zod";
 import { requireActor, type Actor } from "@/lib/auth/actor";
-import { HttpError } from "@/lib/errors";
+import { HttpError, UnauthenticatedError } from "@/lib/errors";
 import { isDatabaseDown } from "@/lib/api/database-down";
 import type { FormState } from "./form-state";
 
@@ -51,6 +51,8 @@ export async function runAction<S extends z.ZodType, T = undefined>(
   let actor: Actor;
   try {
     actor = await requireActor();
+    // Forms are for people in a browser: an API token must not mint tokens or change the profile.
+    if (actor.via !== "session") throw new UnauthenticatedError("Sign in in the browser to do this");
   } catch (e) {
     return failure<T>(e, echo(form));
   }

@@ -26,13 +26,16 @@ export async function recordLoginAttempt(email: string, ip: string, succeeded: b
   await db().insert(loginAttempts).values({ email: email.slice(0, 254), ip: ip.slice(0, 64), succeeded });
 }
 
-/** Best-effort client address from proxy headers (the app runs behind a load balancer in production). */
+/**
+ * Client address from proxy headers. The rightmost X-Forwarded-For entry is the one our own load
+ * balancer appended; entries to its left come from the client and could be forged.
+ */
 export function clientIp(headers: Headers | Record<string, string | string[] | undefined>): string {
   const get = (name: string): string | undefined => {
     if (headers instanceof Headers) return headers.get(name) ?? undefined;
     const v = headers[name];
     return Array.isArray(v) ? v[0] : v;
   };
-  const forwarded = get("x-forwarded-for")?.split(",")[0]?.trim();
+  const forwarded = get("x-forwarded-for")?.split(",").pop()?.trim();
   return forwarded || get("x-real-ip") || "local";
 }

@@ -1,5 +1,6 @@
 import { eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
+import type { PoolConnection } from "mysql2/promise";
 import { db, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
 import { runs, type RunWarning } from "@/db/schema";
@@ -30,7 +31,6 @@ export async function ingestRun(runId: number): Promise<void> {
   const row = await getRunWithUpload(runId);
   if (!row) return;
   const { run, upload } = row;
-  await db().update(runs).set({ status: "parsing", progress: 0, error: null }).where(eq(runs.id, runId));
 
   let bytes = 0;
   let lastT = NaN;
@@ -44,9 +44,11 @@ export async function ingestRun(runId: number): Promise<void> {
     progressWrite = progressWrite.then(() => db().update(runs).set({ progress }).where(eq(runs.id, runId))).catch(() => {});
   };
 
-  const conn = await pool().getConnection();
+  let conn: PoolConnection | null = null;
   let load: ReturnType<typeof startSampleLoad> | null = null;
   try {
+    await db().update(runs).set({ status: "parsing", progress: 0, error: null }).where(eq(runs.id, runId));
+    conn = await pool().getConnection();
     const body = await readObject(upload.objectKey);
     const { head, source } = await peek(countingSource(body, (n) => ((bytes += n), reportProgress())));
     const format = detectFormat(head, upload.fileName);
@@ -92,14 +94,16 @@ export async function ingestRun(runId: number): Promise<void> {
     await conn.commit();
   } catch (e) {
     await load?.abort();
-    await conn.rollback().catch(() => {});
+    await conn?.rollback().catch(() => {});
     await progressWrite;
+    // A failed run has no samples, also when a re-parse fails after an earlier good parse.
+    await conn?.query("DELETE FROM samples WHERE run_id = ?", [runId]).catch(() => {});
     await db()
       .update(runs)
       .set({ status: "failed", progress: 0, error: describeFailure(e), sampleCount: 0 })
       .where(eq(runs.id, runId))
       .catch(() => {});
   } finally {
-    conn.release();
+    conn?.release();
   }
 }

@@ -1,4 +1,4 @@
-import { eq } from "drizzle-orm";
+import { and, eq, notInArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { getRun, getRunWithUpload } from "@/db/queries/runs";
 import { runs } from "@/db/schema";
@@ -16,11 +16,16 @@ import { ingestBusy, startIngest } from "./ingest-queue";
 import { resolveColumnMap } from "./resolve-column-map";
 
 /** The run as the API and the status page show it. */
+const loadRun = (runId: number) => () => getRunWithUpload(runId).then((r) => r && { ...r, crewId: r.run.crewId });
+
 export async function viewRun(actor: Actor, runId: number) {
-  const { record } = await requireRecordPermission(actor, () => getRunWithUpload(runId).then((r) => r && { ...r, crewId: r.run.crewId }), "read", "Run");
+  const { record, access } = await requireRecordPermission(actor, loadRun(runId), "read", "Run");
   const { run, upload } = record;
   return {
     id: run.id,
+    /** The caller's role in the run's own crew (not in whichever crew is active). */
+    viewerRole: access.role,
+    mayEdit: can(access.role, "delete") || (can(access.role, "editOwnRun") && run.pilotId === actor.user.id),
     crewId: run.crewId,
     title: run.title,
     status: run.status,
@@ -53,12 +58,15 @@ async function requireRunEdit(actor: Actor, runId: number) {
 /** Parses the stored original again, optionally with another column map; the old samples are replaced atomically. */
 export async function reparseRun(actor: Actor, runId: number, input: { columnMapId?: number; columnMap?: ColumnMap }) {
   const run = await requireRunEdit(actor, runId);
-  if (ingestBusy(runId) || run.status === "parsing") throw new ConflictError("This run is being parsed right now; wait for it to finish");
+  const busy = "This run is being read right now; wait for it to finish";
+  if (ingestBusy(runId)) throw new ConflictError(busy);
   const columnMap = await resolveColumnMap(actor, run.crewId, input);
-  await db()
+  // Conditional, so two re-parse requests cannot both queue the run.
+  const [claim] = await db()
     .update(runs)
     .set({ status: "queued", progress: 0, error: null, ...(columnMap ? { columnMap: columnMap as unknown as Record<string, unknown> } : {}) })
-    .where(eq(runs.id, runId));
+    .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
+  if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(busy);
   await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.reparsed", targetType: "run", targetId: runId });
   startIngest(runId);
   return { runId, status: "queued" as const };
@@ -66,7 +74,7 @@ export async function reparseRun(actor: Actor, runId: number, input: { columnMap
 
 /** First rows of a CSV log with the detected column map, for the column-map form. */
 export async function previewRun(actor: Actor, runId: number) {
-  const { record } = await requireRecordPermission(actor, () => getRunWithUpload(runId).then((r) => r && { ...r, crewId: r.run.crewId }), "read", "Run");
+  const { record } = await requireRecordPermission(actor, loadRun(runId), "read", "Run");
   const end = Math.min(record.upload.sizeBytes, 64 * 1024) - 1;
   const chunks: Buffer[] = [];
   for await (const c of await readObject(record.upload.objectKey, { start: 0, end })) chunks.push(c as Buffer);
@@ -83,7 +91,7 @@ export async function previewRun(actor: Actor, runId: number) {
 
 /** A short-lived download link for the original file, exactly as uploaded. */
 export async function originalDownloadUrl(actor: Actor, runId: number): Promise<string> {
-  const { record } = await requireRecordPermission(actor, () => getRunWithUpload(runId).then((r) => r && { ...r, crewId: r.run.crewId }), "read", "Run");
+  const { record } = await requireRecordPermission(actor, loadRun(runId), "read", "Run");
   await audit({ crewId: record.run.crewId, actorId: actor.user.id, action: "run.original-downloaded", targetType: "run", targetId: runId });
   return presignGet(record.upload.objectKey, record.upload.fileName);
 }

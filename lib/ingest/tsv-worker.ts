@@ -31,6 +31,8 @@ export class TsvEncoder {
         p?.resolve(Buffer.from(m.out.buffer, m.out.byteOffset, m.out.byteLength));
       });
       this.worker.on("error", (e) => this.failAll(e));
+      // An exit without an error (e.g. out of memory) must not leave encodes waiting for ever.
+      this.worker.on("exit", () => this.failAll(new Error("the TSV encoder thread stopped")));
       this.worker.unref();
     } catch {
       this.worker = null;
@@ -38,6 +40,7 @@ export class TsvEncoder {
   }
 
   private failAll(e: Error): void {
+    if (!this.worker) return;
     for (const p of this.pending.values()) p.reject(e);
     this.pending.clear();
     this.worker = null;
@@ -54,6 +57,11 @@ export class TsvEncoder {
       this.pending.set(id, { resolve, reject });
       this.worker!.postMessage({ id, runId: this.runId, firstSeq, n: batch.length, arrays, kinds: TSV_KINDS, rc, rcChannels: RC_CHANNELS }, transfer);
     });
+  }
+
+  /** True while batches are encoded on the worker thread (false after a fallback). */
+  get onWorker(): boolean {
+    return this.worker !== null;
   }
 
   async close(): Promise<void> {

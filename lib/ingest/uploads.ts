@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { eq } from "drizzle-orm";
+import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { getBuild } from "@/db/queries/builds";
 import { getRoutePlan } from "@/db/queries/route-plans";
@@ -9,7 +9,9 @@ import { audit } from "@/lib/audit";
 import { requireCrewPermission, requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
 import { env } from "@/lib/env";
-import { ConflictError, ValidationError } from "@/lib/errors";
+import { can } from "@/lib/auth/roles";
+import { isDuplicateKey } from "@/lib/db-errors";
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
 import { completeMultipart, objectSize, presignPut, readObject, startMultipart } from "@/lib/storage/objects";
 import type { ColumnMap } from "@/lib/parsers/column-map";
 import type { UploadCreate } from "@/lib/validations/upload";
@@ -32,8 +34,13 @@ export async function createUpload(actor: Actor, crewId: number, input: Omit<Upl
     });
   }
   // Build and route plan must be the caller's crew's own; another crew's id is just "not found".
-  if (input.buildId) await requireRecordPermission(actor, () => getBuild(input.buildId!), "read", "Build");
-  if (input.routePlanId) await requireRecordPermission(actor, () => getRoutePlan(input.routePlanId!), "read", "Route plan");
+  // Build and route plan must belong to the upload's crew; anything else is just "not found".
+  const sameCrew = async <T extends { crewId: number }>(load: () => Promise<T | null>, what: string) => {
+    const { record } = await requireRecordPermission(actor, load, "read", what);
+    if (record.crewId !== crewId) throw new NotFoundError(what);
+  };
+  if (input.buildId) await sameCrew(() => getBuild(input.buildId!), "Build");
+  if (input.routePlanId) await sameCrew(() => getRoutePlan(input.routePlanId!), "Route plan");
   const objectKey = uploadObjectKey(crewId, input.fileName);
   const contentType = input.contentType || "application/octet-stream";
   // Large files go up in parts, so a dropped connection at the field costs one part, not the file.
@@ -66,6 +73,16 @@ async function sha256OfObject(key: string): Promise<string> {
   return h.digest("hex");
 }
 
+/** The run this upload already has, or the run of an earlier upload of the same bytes in the crew. */
+async function existingResult(uploadId: number, crewId: number, sha256: string | null) {
+  const [own] = await db().select({ id: runs.id, status: runs.status }).from(runs).where(eq(runs.uploadId, uploadId));
+  if (own) return { runId: own.id, status: own.status, duplicate: false };
+  const earlier = sha256 ? await findRunBySha(crewId, sha256, uploadId) : null;
+  if (!earlier) return null;
+  const [run] = await db().select({ status: runs.status }).from(runs).where(eq(runs.id, earlier.runId));
+  return { runId: earlier.runId, status: run.status, duplicate: true };
+}
+
 function titleFor(fileName: string): string {
   return fileName.replace(/\.[a-z0-9]{1,5}$/i, "").slice(0, 160) || "Run";
 }
@@ -79,12 +96,14 @@ export async function completeUpload(
   uploadId: number,
   input: { columnMapId?: number; columnMap?: ColumnMap; parts?: string[] },
 ): Promise<{ runId: number; status: string; duplicate: boolean }> {
-  const { record: upload } = await requireRecordPermission(actor, () => getUpload(uploadId), "uploadLog", "Upload");
+  const { record: upload, access } = await requireRecordPermission(actor, () => getUpload(uploadId), "uploadLog", "Upload");
+  if (upload.uploadedBy !== actor.user.id && !can(access.role, "delete")) throw new ForbiddenError("Only the person who uploaded the file or a lead can finish this upload");
   if (upload.storedAt) {
-    const [run] = await db().select({ id: runs.id, status: runs.status }).from(runs).where(eq(runs.uploadId, uploadId));
-    if (run) return { runId: run.id, status: run.status, duplicate: false };
+    const settled = await existingResult(upload.id, upload.crewId, upload.sha256);
+    if (settled) return settled;
   }
-  if (upload.multipartUploadId) {
+  // A retry after the parts were joined finds the whole object already there.
+  if (upload.multipartUploadId && (await objectSize(upload.objectKey)) !== upload.sizeBytes) {
     if (!input.parts?.length) throw new ValidationError("This upload went up in parts; send the parts' ETags to finish it");
     await completeMultipart(upload.objectKey, upload.multipartUploadId, input.parts);
   }
@@ -96,26 +115,37 @@ export async function completeUpload(
   }
   const columnMap = await resolveColumnMap(actor, upload.crewId, input);
   const sha256 = await sha256OfObject(upload.objectKey);
-  await db().update(uploads).set({ sha256, status: "stored", storedAt: new Date() }).where(eq(uploads.id, uploadId));
-
-  const earlier = await findRunBySha(upload.crewId, sha256, uploadId);
-  if (earlier) {
-    const [run] = await db().select({ status: runs.status }).from(runs).where(eq(runs.id, earlier.runId));
-    return { runId: earlier.runId, status: run.status, duplicate: true };
+  // Claim the upload: of two completes racing, only one gets past this.
+  const [claim] = await db()
+    .update(uploads)
+    .set({ sha256, status: "stored", storedAt: new Date() })
+    .where(and(eq(uploads.id, uploadId), isNull(uploads.storedAt)));
+  if ((claim as unknown as { affectedRows: number }).affectedRows === 0 && !upload.storedAt) {
+    const settled = await existingResult(upload.id, upload.crewId, sha256);
+    if (settled) return settled;
+    throw new ConflictError("This upload is being finished by another request; ask for the run in a moment");
   }
-  const [{ id: runId }] = await db()
+  const earlier = await existingResult(upload.id, upload.crewId, sha256);
+  if (earlier) return earlier;
+  let runId: number;
+  try {
+    [{ id: runId }] = await db()
     .insert(runs)
     .values({
       crewId: upload.crewId,
       uploadId,
       buildId: upload.buildId,
       routePlanId: upload.routePlanId,
-      pilotId: actor.user.id,
+      pilotId: upload.uploadedBy ?? actor.user.id,
       title: titleFor(upload.fileName),
       status: "queued",
       columnMap: (columnMap as Record<string, unknown> | undefined) ?? null,
     })
     .$returningId();
+  } catch (e) {
+    if (!isDuplicateKey(e)) throw e;
+    return (await existingResult(upload.id, upload.crewId, sha256))!;
+  }
   await audit({ crewId: upload.crewId, actorId: actor.user.id, action: "run.uploaded", targetType: "run", targetId: runId, detail: { fileName: upload.fileName, size } });
   startIngest(runId);
   return { runId, status: "queued", duplicate: false };

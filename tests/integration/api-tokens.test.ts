@@ -1,4 +1,7 @@
+import { createHash } from "node:crypto";
+import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
+import { db } from "@/db/client";
 import { createApiToken, revokeApiToken } from "@/lib/api-tokens";
 import { listApiTokens } from "@/db/queries/api-tokens";
 import { Client } from "../helpers/http";
@@ -19,8 +22,10 @@ describe("personal API tokens", () => {
 
     const listed = await listApiTokens(actor.user.id);
     expect(listed[0].lastUsedAt).toBeInstanceOf(Date);
-    // Only a hash is stored: the clear token appears nowhere in what the app reads back.
-    expect(JSON.stringify(listed)).not.toContain(token.slice(12));
+    // Only a SHA-256 of the token is stored: the stored row holds the hash and no part of the secret.
+    const [stored] = (await db().execute(sql`SELECT * FROM api_tokens WHERE id = ${id}`)) as unknown as [Record<string, unknown>[]];
+    expect(stored[0].token_hash).toBe(createHash("sha256").update(token).digest("hex"));
+    expect(JSON.stringify(stored[0])).not.toContain(token.slice(12));
 
     await revokeApiToken(actor, id);
     expect((await bearer.get("/api/me")).status).toBe(401);

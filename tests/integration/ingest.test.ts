@@ -83,6 +83,18 @@ describe("log ingest", () => {
     expect(Number(rows[0].n)).toBeGreaterThan(csvRows * 0.9);
   });
 
+  it("leaves no samples behind when a re-parse fails", async () => {
+    const up = await uploadLog(pilot, "reparse-fails.csv", csv.replace("MANUAL", "MANUAL3"));
+    const good = await settledRun(pilot, up.runId);
+    expect(await sampleCount(up.runId)).toBe(csvRows);
+    const wrong = { ...good.columnMap!, columns: good.columnMap!.columns.map((c) => (c.field === "time" ? { ...c, unit: "iso" } : c)) };
+    expect((await pilot.post(`/api/runs/${up.runId}/reparse`, { columnMap: wrong })).status).toBe(200);
+    const failed = await settledRun(pilot, up.runId);
+    expect(failed.status).toBe("failed");
+    expect(failed.error).toMatch(/line 2/);
+    expect(await sampleCount(up.runId)).toBe(0);
+  });
+
   it("keeps a broken file with a clear message, no samples, and the original downloadable", async () => {
     const junk = Buffer.from(Array.from({ length: 4096 }, (_, i) => (i * 37) % 256));
     const up = await uploadLog(pilot, "junk.csv", junk);
@@ -210,5 +222,23 @@ describe("multipart upload", () => {
     const dl = await c.get(`/api/runs/${run.id}/original`);
     const original = Buffer.from(await (await fetch(dl.headers.get("location")!)).arrayBuffer());
     expect(original.equals(bytes)).toBe(true);
+  });
+});
+
+describe("recoverStaleRuns", () => {
+  it("marks runs left queued or parsing by a restart as failed with a re-parse hint", async () => {
+    const lead = await newLead("restart");
+    const c = new Client();
+    expect(await c.signIn(lead.email, testPassword)).toBeNull();
+    const up = await uploadLog(c, "restart.csv", csv.replace("HOLD", "HOLD2"));
+    await settledRun(c, up.runId);
+    await db().execute(sql`UPDATE runs SET status = 'parsing' WHERE id = ${up.runId}`);
+    const { recoverStaleRuns } = await import("@/lib/ingest/recover-stale-runs");
+    expect(await recoverStaleRuns(lead.crewId)).toBe(1);
+    const run = await settledRun(c, up.runId);
+    expect(run.status).toBe("failed");
+    expect(run.error).toMatch(/restarted/);
+    expect((await c.post(`/api/runs/${up.runId}/reparse`, {})).status).toBe(200);
+    expect((await settledRun(c, up.runId)).status).toBe("ready");
   });
 });

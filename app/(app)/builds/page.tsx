@@ -16,7 +16,7 @@ export default async function BuildsPage() {
   const mayEdit = can(crew.role, "manageBuilds");
   return (
     <>
-      <PageHeader title="Builds" lead="One record per vehicle: radio, firmware, channel map and failsafe plan." />
+      <PageHeader title="Builds" lead="One record per vehicle: radio link, battery and failsafe plan." />
       {rows.length === 0 ? (
         <EmptyState title="No builds recorded">
           <p>

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { getCrewOverview } from "@/db/queries/overview";
+import { runStatusText } from "@/components/runs/run-status-text";
 import { PageHeader } from "@/components/ui/page-header";
 import { SafetyNote } from "@/components/ui/safety-note";
 import { getCrewPageContext } from "@/lib/auth/page-context";
@@ -18,7 +19,7 @@ export default async function DashboardPage() {
     { label: "Crew members", value: o.memberCount, href: "/crew" },
   ];
   const steps = [
-    { done: o.buildCount > 0, text: "Record a build with its link sheet", href: "/builds", who: can(crew.role, "manageBuilds") },
+    { done: o.buildCount > 0, text: "Record a build", href: "/builds", who: can(crew.role, "manageBuilds") },
     { done: o.routePlanCount > 0, text: "Add a route plan", href: "/routes", who: can(crew.role, "manageRoutePlans") },
     { done: o.memberCount > 1, text: "Invite your pilots and observers", href: "/crew", who: can(crew.role, "manageMembers") },
     { done: o.runCount > 0, text: "Upload the log of a run", href: "/runs/upload", who: can(crew.role, "uploadLog") },
@@ -74,7 +75,7 @@ export default async function DashboardPage() {
                 <Link href={`/runs/${r.id}`} className="font-medium text-tide-700 underline">
                   {r.title}
                 </Link>
-                <span className="text-sm text-ink-soft">{r.verdict ?? r.status}</span>
+                <span className="text-sm text-ink-soft">{r.verdict ?? runStatusText[r.status] ?? r.status}</span>
               </li>
             ))}
           </ul>

@@ -25,7 +25,8 @@ export default async function RoutesPage() {
             <li key={r.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-3">
               <span className="font-medium">{r.name}</span>
               <span className="text-sm text-ink-soft">
-                <span className="figures">{r.waypointCount}</span> waypoints · {r.vehicleClass === "air" ? "air" : "ground"} · from {r.source}
+                <span className="figures">{r.waypointCount}</span> waypoints · {r.vehicleClass === "air" ? "air" : "ground"} ·{" "}
+                {r.source === "gpx" ? "from a GPX file" : r.source === "drawn" ? "drawn on the map" : "typed in"}
               </span>
             </li>
           ))}

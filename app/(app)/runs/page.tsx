@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { listRuns } from "@/db/queries/overview";
+import { runStatusText } from "@/components/runs/run-status-text";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { getCrewPageContext } from "@/lib/auth/page-context";
@@ -48,7 +49,7 @@ export default async function RunsPage() {
                     </Link>
                   </td>
                   <td className="figures px-3 py-2">{r.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
-                  <td className="px-3 py-2">{r.status}</td>
+                  <td className="px-3 py-2">{runStatusText[r.status] ?? r.status}</td>
                   <td className="px-3 py-2">{r.verdict ?? "—"}</td>
                 </tr>
               ))}

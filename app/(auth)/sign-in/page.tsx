@@ -4,10 +4,17 @@ import { SignInForm } from "./sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
 
+/** Only paths of this site: an open redirect after sign-in is a phishing aid. */
 function safeCallback(raw: string | string[] | undefined): string {
   const v = Array.isArray(raw) ? raw[0] : raw;
-  // Only same-site paths: an open redirect after sign-in is a phishing aid.
-  return v && v.startsWith("/") && !v.startsWith("//") ? v : "/dashboard";
+  if (!v) return "/dashboard";
+  const base = new URL("http://sortie.invalid");
+  try {
+    const u = new URL(v, base);
+    return u.origin === base.origin ? u.pathname + u.search : "/dashboard";
+  } catch {
+    return "/dashboard";
+  }
 }
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {

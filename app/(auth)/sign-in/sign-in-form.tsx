@@ -9,7 +9,7 @@ import { FormMessage } from "@/components/ui/form-message";
 
 const messages: Record<string, string> = {
   CredentialsSignin: "That e-mail and password do not match an account.",
-  RateLimited: "Too many failed attempts. Wait 15 minutes, or reset your password.",
+  RateLimited: "Too many failed attempts for this account. Wait a while before trying again, or reset the password.",
 };
 
 export function SignInForm({ callbackUrl, notice }: { callbackUrl: string; notice?: string }) {

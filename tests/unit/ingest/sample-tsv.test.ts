@@ -54,7 +54,9 @@ describe("TsvEncoder", () => {
     const enc = new TsvEncoder(9);
     try {
       const b = batch();
+      expect(enc.onWorker).toBe(true);
       const [a, c] = await Promise.all([enc.encode(0, b), enc.encode(2, b)]);
+      expect(enc.onWorker).toBe(true);
       expect(a.equals(batchToTsv(9, 0, b))).toBe(true);
       expect(c.equals(batchToTsv(9, 2, b))).toBe(true);
       // The batch is still usable: the encoder sends copies.

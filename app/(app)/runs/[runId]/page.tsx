@@ -4,9 +4,9 @@ import { notFound } from "next/navigation";
 import { formatBytes, formatDuration } from "@/components/runs/format-bytes";
 import { ReparseButton } from "@/components/runs/reparse-button";
 import { RunStatusPoller } from "@/components/runs/run-status-poller";
+import { runStatusText } from "@/components/runs/run-status-text";
 import { PageHeader } from "@/components/ui/page-header";
 import { getCrewPageContext } from "@/lib/auth/page-context";
-import { can } from "@/lib/auth/roles";
 import { NotFoundError } from "@/lib/errors";
 import { viewRun, type RunView } from "@/lib/ingest/runs";
 import { idSchema } from "@/lib/validations/crew";
@@ -17,35 +17,41 @@ export const metadata: Metadata = { title: "Run" };
 async function loadRun(raw: string): Promise<{ run: RunView; mayEdit: boolean }> {
   const id = idSchema.safeParse(raw);
   if (!id.success) notFound();
-  const { actor, crew } = await getCrewPageContext();
+  const { actor } = await getCrewPageContext();
   try {
     const run = await viewRun(actor, id.data);
-    const mayEdit = can(crew.role, "delete") || (can(crew.role, "editOwnRun") && run.pilotId === actor.user.id);
-    return { run, mayEdit };
+    return { run, mayEdit: run.mayEdit };
   } catch (e) {
     if (e instanceof NotFoundError) notFound();
     throw e;
   }
 }
 
-const statusText: Record<string, string> = {
-  queued: "Waiting to be read",
-  parsing: "Reading the log",
-  analysing: "Analysing",
-  ready: "Ready",
-  failed: "Could not be read",
+const fieldWords: Record<string, string> = {
+  lat: "position", altM: "altitude", speedMps: "speed", headingDeg: "course", sats: "satellites", hdop: "HDOP", fixType: "fix type",
+  rssiDbm: "RSSI (dBm)", rssiPct: "RSSI (%)", lqPct: "LQ", snrDb: "SNR", voltageV: "voltage", currentA: "current", usedMah: "capacity used",
+  modeIndex: "mode", armed: "armed flag", failsafe: "failsafe flag",
 };
+
+function carries(summary: Record<string, unknown> | null): string {
+  const present = (summary?.fieldsPresent as string[] | undefined) ?? [];
+  const words = present.map((f) => fieldWords[f]).filter(Boolean);
+  if (summary?.hasRc) words.push("RC channels");
+  return words.length ? words.join(", ") : "—";
+}
+
 
 export default async function RunPage({ params }: { params: Promise<{ runId: string }> }) {
   const { run, mayEdit } = await loadRun((await params).runId);
   const figures = [
-    { label: "Status", value: statusText[run.status] ?? run.status },
+    { label: "Status", value: runStatusText[run.status] ?? run.status },
     { label: "Format", value: run.format ? run.format.toUpperCase() : "—" },
     { label: "Samples", value: run.sampleCount.toLocaleString("en") },
     { label: "Duration", value: formatDuration(run.durationS) },
     { label: "Started", value: run.startedAt ? run.startedAt.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "not in the log" },
     { label: "Original", value: `${run.upload.fileName} (${formatBytes(run.upload.sizeBytes)})` },
   ];
+  const carried = run.status === "ready" ? carries(run.summary) : null;
   return (
     <>
       <PageHeader title={run.title} lead={run.upload.note ?? undefined}>
@@ -72,6 +78,12 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
           </div>
         ))}
       </dl>
+      {carried && (
+        <p className="panel mt-3 text-sm">
+          <span className="text-ink-soft">The log carries: </span>
+          <span data-testid="carries">{carried}</span>
+        </p>
+      )}
       {run.warnings.length > 0 && (
         <section className="panel mt-6" aria-labelledby="warnings">
           <h2 id="warnings" className="text-lg font-semibold">

@@ -5,8 +5,8 @@ import { z } from "zod";
 import type { FormState } from "@/lib/actions/form-state";
 import { runAction } from "@/lib/actions/run-action";
 import { inviteMember, revokeInvitation } from "@/lib/crews/invitations";
-import { changeMemberRole, removeMember } from "@/lib/crews/members";
-import { changeRoleSchema, idSchema, inviteMemberSchema, removeMemberSchema } from "@/lib/validations/crew";
+import { changeMemberRole, removeMember, renameCrew } from "@/lib/crews/members";
+import { changeRoleSchema, idSchema, inviteMemberSchema, removeMemberSchema, renameCrewSchema } from "@/lib/validations/crew";
 
 const withCrew = <T extends z.ZodRawShape>(shape: T) => z.object({ crewId: idSchema, ...shape });
 
@@ -39,5 +39,13 @@ export async function revokeInvitationAction(_prev: FormState, form: FormData): 
     await revokeInvitation(actor, invitationId);
     revalidatePath("/crew");
     return { status: "ok", message: "Invitation withdrawn." };
+  });
+}
+
+export async function renameCrewAction(_prev: FormState, form: FormData): Promise<FormState> {
+  return runAction(form, withCrew(renameCrewSchema.shape), async (actor, { crewId, name }) => {
+    await renameCrew(actor, crewId, name);
+    revalidatePath("/", "layout");
+    return { status: "ok", message: "Crew renamed." };
   });
 }

@@ -5,6 +5,7 @@ import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
 import { InviteForm } from "./invite-form";
 import { MemberRow } from "./member-row";
+import { RenameCrewForm } from "./rename-crew-form";
 import { RevokeInvitationButton } from "./revoke-invitation-button";
 
 export const metadata: Metadata = { title: "Crew" };
@@ -56,6 +57,12 @@ export default async function CrewPage() {
               Invite someone
             </h2>
             <InviteForm crewId={crew.crewId} />
+          </section>
+          <section aria-labelledby="rename" className="panel mt-6">
+            <h2 id="rename" className="mb-4 text-lg font-semibold">
+              Crew name
+            </h2>
+            <RenameCrewForm crewId={crew.crewId} name={crew.name} />
           </section>
         </>
       )}

@@ -3,16 +3,38 @@ import { drizzle } from "drizzle-orm/mysql2";
 import type { PoolConnection } from "mysql2/promise";
 import { db, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
-import { runs, type RunWarning } from "@/db/schema";
+import { events, runs, type RunWarning } from "@/db/schema";
+import { analyseRun } from "@/lib/analysis/analyse-run";
+import { SeriesCollector } from "@/lib/analysis/series-collector";
+import type { AnalysisEvent } from "@/lib/analysis/types";
 import { columnMapSchema } from "@/lib/parsers/column-map";
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { parseLog } from "@/lib/parsers/parse-log";
 import { ParseError, type SampleBatch } from "@/lib/parsers/types";
 import { readObject } from "@/lib/storage/objects";
 import { countingSource, peek } from "./byte-source";
+import { loadAnalysisInputs } from "./analysis-inputs";
 import { startSampleLoad } from "./load-samples";
 
 const PROGRESS_EVERY_MS = 400;
+
+// MariaDB has no NaN or Infinity in DOUBLE columns.
+const finiteOrNull = (v: number | null) => (v != null && Number.isFinite(v) ? v : null);
+
+function eventRow(runId: number, e: AnalysisEvent) {
+  return {
+    runId,
+    kind: e.kind,
+    startS: e.startS,
+    endS: Number.isFinite(e.endS) ? e.endS : e.startS,
+    lat: finiteOrNull(e.lat),
+    lon: finiteOrNull(e.lon),
+    distanceFromHomeM: finiteOrNull(e.distanceFromHomeM),
+    peak: finiteOrNull(e.peak),
+    threshold: finiteOrNull(e.threshold),
+    detail: e.detail ?? null,
+  };
+}
 
 /** What a person reads when a log cannot be stored; internals stay in the server log. */
 export function describeFailure(e: unknown): string {
@@ -27,7 +49,7 @@ export function describeFailure(e: unknown): string {
  * Streams one run's original object through its parser into the samples table in a single
  * transaction; a failure part-way rolls back, so a run never has partial samples.
  */
-export async function ingestRun(runId: number): Promise<void> {
+export async function ingestRun(runId: number, attempt = 1): Promise<void> {
   const row = await getRunWithUpload(runId);
   if (!row) return;
   const { run, upload } = row;
@@ -56,14 +78,21 @@ export async function ingestRun(runId: number): Promise<void> {
     await db().update(runs).set({ format }).where(eq(runs.id, runId));
     const columnMap = format === "csv" && run.columnMap ? columnMapSchema.parse(run.columnMap) : undefined;
 
+    const inputs = await loadAnalysisInputs(run);
+    const collector = new SeriesCollector();
+    // READ COMMITTED: the deletes below then take no gap locks, so two runs loading side by side
+    // cannot deadlock on the neighbouring key ranges of the samples table.
+    await conn.query("SET SESSION TRANSACTION ISOLATION LEVEL READ COMMITTED");
     await conn.beginTransaction();
     await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
+    await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
     load = startSampleLoad(conn, runId);
     const sink = load;
     const summary = await parseLog(format, source, {
       columnMap,
       onBatch: async (b: SampleBatch) => {
         if (b.length) lastT = b.columns.tS[b.length - 1];
+        collector.add(b);
         await sink.write(b);
       },
     });
@@ -74,8 +103,14 @@ export async function ingestRun(runId: number): Promise<void> {
 
     await progressWrite;
     const warnings: RunWarning[] = summary.warnings.map((w) => ({ ...w }));
-    // Samples and the run's new state commit together.
-    await drizzle(conn as never, { schema, mode: "default", casing: "snake_case" })
+    await db().update(runs).set({ status: "analysing" }).where(eq(runs.id, runId));
+    const analysis = analyseRun(collector.series(summary.modeNames), inputs);
+    const tx = drizzle(conn as never, { schema, mode: "default", casing: "snake_case" });
+    for (let i = 0; i < analysis.events.length; i += 500) {
+      await tx.insert(events).values(analysis.events.slice(i, i + 500).map((e) => eventRow(runId, e)));
+    }
+    // Samples, events and the run's new state commit together.
+    await tx
       .update(runs)
       .set({
         status: "ready",
@@ -84,10 +119,12 @@ export async function ingestRun(runId: number): Promise<void> {
         sampleCount: summary.sampleCount,
         startedAt: summary.startedAt,
         durationS: Number.isFinite(lastT) ? lastT : null,
+        distanceM: analysis.summary.distanceM,
+        verdict: analysis.summary.verdict.level,
         warnings,
         modeNames: summary.modeNames,
         columnMap: (summary.columnMap as Record<string, unknown> | undefined) ?? null,
-        summary: { fieldsPresent: summary.fieldsPresent, hasRc: summary.hasRc, unplaced: summary.unplaced ?? [] },
+        summary: { ...analysis.summary, fieldsPresent: summary.fieldsPresent, hasRc: summary.hasRc, unplaced: summary.unplaced ?? [] },
         error: null,
       })
       .where(eq(runs.id, runId));
@@ -96,8 +133,14 @@ export async function ingestRun(runId: number): Promise<void> {
     await load?.abort();
     await conn?.rollback().catch(() => {});
     await progressWrite;
+    if ((e as { code?: string }).code === "ER_LOCK_DEADLOCK" && attempt < 3) {
+      conn?.release();
+      conn = null;
+      return ingestRun(runId, attempt + 1);
+    }
     // A failed run has no samples, also when a re-parse fails after an earlier good parse.
     await conn?.query("DELETE FROM samples WHERE run_id = ?", [runId]).catch(() => {});
+    await conn?.query("DELETE FROM events WHERE run_id = ?", [runId]).catch(() => {});
     await db()
       .update(runs)
       .set({ status: "failed", progress: 0, error: describeFailure(e), sampleCount: 0 })

@@ -187,6 +187,14 @@ describe("log ingest", () => {
       expect(r.status).toBe("ready");
       expect(r.sample_count).toBeGreaterThan(100);
     }
+    // Ingest stores the analysis: the rover log's events and verdict (our simulator's scenario).
+    const [ev] = (await db().execute(
+      sql`SELECT e.kind, r.verdict FROM events e JOIN runs r ON r.id = e.run_id JOIN uploads u ON u.id = r.upload_id
+          JOIN crews c ON c.id = r.crew_id WHERE c.name = ${demoCrew.name} AND u.file_name = 'mudlark-flats-loop.csv'`,
+    )) as unknown as [{ kind: string; verdict: string }[]];
+    const kinds = new Set(ev.map((e) => e.kind));
+    for (const k of ["link-fade", "link-lost", "failsafe", "return-to-home", "low-voltage", "waypoint-reached"]) expect(kinds.has(k), k).toBe(true);
+    expect(ev[0].verdict).toBe("act");
   });
 });
 

@@ -52,6 +52,7 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
     { label: "Original", value: `${run.upload.fileName} (${formatBytes(run.upload.sizeBytes)})` },
   ];
   const carried = run.status === "ready" ? carries(run.summary) : null;
+  const verdict = (run.summary?.verdict as { level: string; reasons: string[] } | undefined) ?? null;
   return (
     <>
       <PageHeader title={run.title} lead={run.upload.note ?? undefined}>
@@ -61,6 +62,23 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
         {mayEdit && run.status !== "queued" && run.status !== "parsing" && <ReparseButton runId={run.id} />}
       </PageHeader>
       <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} />
+      {run.status === "ready" && verdict && (
+        <section
+          aria-label="Verdict"
+          className={`mb-6 rounded-lg border-l-8 bg-card p-4 ${verdict.level === "act" ? "border-act" : verdict.level === "watch" ? "border-watch" : "border-clear"}`}
+        >
+          <p className="text-lg font-bold">
+            {verdict.level === "act" ? "Act before the next run" : verdict.level === "watch" ? "Watch" : "Clear"}
+          </p>
+          {verdict.reasons.length > 0 && (
+            <ul className="mt-1 list-disc pl-5 text-sm">
+              {verdict.reasons.map((r) => (
+                <li key={r}>{r}</li>
+              ))}
+            </ul>
+          )}
+        </section>
+      )}
       {run.status === "failed" && run.error && (
         <section role="alert" className="mb-6 rounded-lg border border-act/40 bg-act/5 p-4">
           <h2 className="font-semibold text-act">This log could not be read</h2>

@@ -1,0 +1,117 @@
+import { analyseFailsafe } from "./failsafe";
+import { analyseLink } from "./link";
+import { analysePower } from "./power";
+import { estimateRange } from "./range";
+import { analyseRoute } from "./route";
+import { defaultThresholds } from "./thresholds";
+import { analyseTrack } from "./track";
+import type { AnalysisEvent, BuildConfig, RoutePlanInput, RunSeries, Thresholds } from "./types";
+import { judgeRun } from "./verdict";
+
+export interface AnalyseRunOptions {
+  build?: BuildConfig;
+  plan?: RoutePlanInput;
+  /** Defaults for the build's vehicle type when absent. */
+  thresholds?: Thresholds;
+}
+
+const round = (v: number | null | undefined, digits = 2) => (v == null || !Number.isFinite(v) ? null : Number(v.toFixed(digits)));
+
+/**
+ * The whole analysis of one run: track first (home, distance from home per sample), then link,
+ * failsafe, route, power and range, then the verdict. Pure; one pass per module over the arrays.
+ * @returns `summary` (the figures of the debrief, SI units) and `events` sorted by start time
+ * @example analyseRun(series, { build, plan }).summary.verdict // => { level: "act", reasons: ["Link lost once", …] }
+ */
+export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
+  const th = opts.thresholds ?? defaultThresholds(opts.build?.vehicleType ?? "ground");
+  const track = analyseTrack(series, th);
+  const fromHome = track.distanceFromHomeM;
+  const link = analyseLink(series, th, opts.build, fromHome);
+  const linkLost = link.events.filter((e) => e.kind === "link-lost");
+  const failsafe = analyseFailsafe(series, linkLost, opts.build, th, fromHome);
+  const rthSpans = failsafe.events.filter((e) => e.kind === "return-to-home").map((e) => ({ startS: e.startS, endS: e.endS }));
+  const route = opts.plan ? analyseRoute(series, opts.plan, th, { distanceFromHome: fromHome, rthSpans, usableFix: track.usableFix, home: track.home }) : null;
+  const power = analysePower(series, th, opts.build, fromHome);
+  const sensitivity = opts.build?.rxSensitivityDbm ?? th.defaultSensitivityDbm;
+  const range = estimateRange(series.rssiDbm, fromHome, { sensitivityDbm: sensitivity, fadeMarginDb: th.dbmFadeMarginDb, bandMhz: opts.build?.bandMhz, linked: link.linked });
+
+  const events: AnalysisEvent[] = [...track.events, ...link.events, ...failsafe.events, ...(route?.events ?? []), ...power.events].sort(
+    (a, b) => a.startS - b.startS || a.endS - b.endS,
+  );
+  const count = (kind: AnalysisEvent["kind"]) => events.filter((e) => e.kind === kind).length;
+  const verdict = judgeRun({
+    linkLost: count("link-lost"),
+    linkFades: count("link-fade"),
+    failsafeResult: failsafe.outcome,
+    offRoute: count("off-route"),
+    waypointsMissed: route?.missed ?? [],
+    lowVoltage: count("low-voltage"),
+    fixLost: count("fix-lost"),
+    positionJumps: count("position-jump"),
+    hdopWarnS: track.hdopWarnS,
+  });
+  const xteAll = route ? Array.from(route.xteM).filter(Number.isFinite).map(Math.abs) : [];
+  const rms = xteAll.length ? Math.sqrt(xteAll.reduce((s, v) => s + v * v, 0) / xteAll.length) : null;
+  const sorted = [...xteAll].sort((a, b) => a - b);
+  const p95 = sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(0.95 * (sorted.length - 1)))] : null;
+
+  const summary = {
+    durationS: series.n ? round(series.tS[series.n - 1] - series.tS[0], 3) : 0,
+    distanceM: round(track.distanceM, 1),
+    maxDistanceFromHomeM: round(track.maxDistanceFromHomeM, 1),
+    maxSpeedMps: round(track.maxSpeedMps),
+    home: track.home ? { lat: track.home.lat, lon: track.home.lon } : null,
+    gps: { fixLostS: round(track.fixLostS), hdopWarnS: round(track.hdopWarnS), maxHdop: round(track.maxHdop) },
+    link: {
+      metric: link.summary.metric,
+      unit: link.summary.unit,
+      min: round(link.summary.min),
+      median: round(link.summary.median),
+      p5: round(link.summary.p5),
+      timeBelowFadeS: round(link.summary.timeBelowThresholdS),
+      fadeThreshold: link.summary.fadeThreshold,
+    },
+    failsafe: {
+      result: failsafe.outcome,
+      latencyS: round(failsafe.decisive?.failsafeLatencyS ?? null),
+      actionLatencyS: round(failsafe.decisive?.actionLatencyS ?? null),
+      action: failsafe.decisive?.action ?? null,
+      plan: failsafe.plan,
+    },
+    route: route
+      ? {
+          xteRmsM: round(rms),
+          xteP95M: round(p95),
+          xteMaxM: round(sorted.length ? sorted[sorted.length - 1] : null),
+          waypointsReached: route.reached,
+          waypointsMissed: route.missed,
+          waypointsNotReached: route.notReached,
+          legs: route.legs.map((l) => ({ from: l.from, to: l.to, rmsXteM: round(l.rmsXteM), p95XteM: round(l.p95XteM), maxXteM: round(l.maxXteM) })),
+        }
+      : null,
+    power: {
+      cells: power.cells,
+      cellsFrom: power.cellsFrom,
+      minCellV: round(power.minUnderLoadPerCellV, 3),
+      sagV: round(power.sagV),
+      capacityUsedMah: round(power.usedMah, 0),
+    },
+    range: range.estimate
+      ? {
+          pathLossExponent: round(range.estimate.pathLossExponent),
+          r2: round(range.estimate.r2, 3),
+          estimatedRangeM: round(range.estimate.estimatedRangeM, 0),
+          marginAtFarthestDb: round(range.estimate.marginAtFarthestDb, 1),
+          farthestM: round(range.estimate.farthestM, 0),
+          samples: range.estimate.samples,
+          label: range.estimate.label,
+        }
+      : { pathLossExponent: null, r2: null, estimatedRangeM: null, reason: range.reason },
+    verdict,
+    thresholds: th,
+  };
+  return { summary, events };
+}
+
+export type RunAnalysis = ReturnType<typeof analyseRun>;

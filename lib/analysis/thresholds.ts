@@ -1,0 +1,38 @@
+import type { Thresholds, VehicleType } from "./types";
+
+/**
+ * Defaults from the product brief (DESIGN.md §5). LQ 70 %, RSSI 40 %, sensitivity + 10 dB, 0.5 s
+ * fade, 5-point / 3 dB hysteresis, 0.1 s loss; HDOP 2.5 and 5 satellites; 3.5 V per LiPo cell for
+ * ≥ 2 s (LiPo common practice); acceptance radius 2 m ground / 5 m air, corridor 3 m / 10 m.
+ * The -100 dBm fallback sensitivity and the jump speeds are common practice, not from a source.
+ */
+export function defaultThresholds(vehicle: VehicleType): Thresholds {
+  const air = vehicle === "multirotor" || vehicle === "fixed-wing";
+  return {
+    lqFadePct: 70,
+    rssiFadePct: 40,
+    dbmFadeMarginDb: 10,
+    defaultSensitivityDbm: -100,
+    fadeMinS: 0.5,
+    hysteresisPct: 5,
+    hysteresisDb: 3,
+    lostMinS: 0.1,
+    hdopWarn: 2.5,
+    minSats: 5,
+    jumpSpeedMps: vehicle === "fixed-wing" ? 120 : air ? 60 : 30,
+    acceptanceRadiusM: air ? 5 : 2,
+    corridorM: air ? 10 : 3,
+    offRouteMinS: 2,
+    lowCellV: 3.5,
+    lowVoltageMinS: 2,
+  };
+}
+
+export function withOverrides(base: Thresholds, ...overrides: (Partial<Thresholds> | null | undefined)[]): Thresholds {
+  const out = { ...base };
+  for (const o of overrides) {
+    if (!o) continue;
+    for (const [k, v] of Object.entries(o)) if (typeof v === "number" && Number.isFinite(v) && k in out) (out as Record<string, number>)[k] = v;
+  }
+  return out;
+}

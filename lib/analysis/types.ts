@@ -1,0 +1,90 @@
+/**
+ * Inputs and outputs of the analysis. Everything here is plain data: the analysis is pure
+ * (no I/O, no clock), so the ingest pipeline, the command-line analyser and tests share it.
+ */
+import type { EventKind } from "@/db/schema/runs";
+
+export type { EventKind };
+
+/** A whole run, columnar. NaN = the log has no value at that sample. Units as in lib/parsers/types.ts. */
+export interface RunSeries {
+  n: number;
+  tS: ArrayLike<number>;
+  lat: ArrayLike<number>;
+  lon: ArrayLike<number>;
+  altM: ArrayLike<number>;
+  speedMps: ArrayLike<number>;
+  headingDeg: ArrayLike<number>;
+  sats: ArrayLike<number>;
+  hdop: ArrayLike<number>;
+  fixType: ArrayLike<number>;
+  rssiDbm: ArrayLike<number>;
+  rssiPct: ArrayLike<number>;
+  lqPct: ArrayLike<number>;
+  snrDb: ArrayLike<number>;
+  voltageV: ArrayLike<number>;
+  currentA: ArrayLike<number>;
+  usedMah: ArrayLike<number>;
+  modeIndex: ArrayLike<number>;
+  armed: ArrayLike<number>;
+  failsafe: ArrayLike<number>;
+  /** RC channels 1–18 in µs, row-major n × 18, 0 = absent; null when the log has none. */
+  rc: ArrayLike<number> | null;
+  /** 1 where a new track segment starts (a reception gap: never bridged). */
+  segmentStart: ArrayLike<number>;
+  modeNames: string[];
+}
+
+export type VehicleType = "ground" | "multirotor" | "fixed-wing" | "boat";
+export type FailsafeAction = "return-to-home" | "hold" | "land";
+
+export interface BuildConfig {
+  vehicleType: VehicleType;
+  cells?: number;
+  bandMhz?: number;
+  rxSensitivityDbm?: number;
+  failsafe?: { action: FailsafeAction; expectedWithinS: number };
+  channels?: { channel: number; function: string; failsafeUs?: number }[];
+}
+
+export interface RoutePlanInput {
+  waypoints: { name: string; lat: number; lon: number; radiusM?: number }[];
+  corridorM?: number;
+}
+
+/** Every threshold an event uses. Defaults: DESIGN.md §5; crews and builds override them. */
+export interface Thresholds {
+  lqFadePct: number;
+  rssiFadePct: number;
+  /** Fade when RSSI dBm is below receiver sensitivity + this margin. */
+  dbmFadeMarginDb: number;
+  /** Used when the build gives no receiver sensitivity (dBm). */
+  defaultSensitivityDbm: number;
+  fadeMinS: number;
+  hysteresisPct: number;
+  hysteresisDb: number;
+  lostMinS: number;
+  hdopWarn: number;
+  minSats: number;
+  /** Implied speed between two fixes above which the second is a position jump (m/s). */
+  jumpSpeedMps: number;
+  acceptanceRadiusM: number;
+  corridorM: number;
+  offRouteMinS: number;
+  lowCellV: number;
+  lowVoltageMinS: number;
+}
+
+export interface AnalysisEvent {
+  kind: EventKind;
+  startS: number;
+  endS: number;
+  lat: number | null;
+  lon: number | null;
+  distanceFromHomeM: number | null;
+  /** The worst value inside the event (e.g. minimum LQ), in the unit of `detail.unit` when set. */
+  peak: number | null;
+  /** The threshold that fired it. */
+  threshold: number | null;
+  detail: Record<string, unknown>;
+}

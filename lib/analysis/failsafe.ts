@@ -106,12 +106,16 @@ export function analyseFailsafe(
   const events: AnalysisEvent[] = [];
   const rthSpans = findSpans(tS, rth, { minDurationS: 0 });
 
+  // Losses are visited in time order, so the search for each one's first sample resumes where the
+  // last one stopped (restarting only if time went backwards): O(n) over the run, not O(n × losses).
+  let cursor = 0;
   const losses: FailsafeLossResult[] = linkLost
     .filter((e) => e.kind === "link-lost")
     .sort((a, b) => a.startS - b.startS)
     .map((loss) => {
-      let a = 0;
+      let a = cursor < n && tS[cursor] <= loss.startS ? cursor : 0;
       while (a < n && !(tS[a] >= loss.startS)) a++;
+      cursor = a;
       let b = a;
       while (b + 1 < n && !(tS[b + 1] > loss.endS + FAILSAFE_GRACE_S)) b++;
       const lossEnd = loss.endS;

@@ -91,7 +91,17 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
   });
   const usable = opts.usableFix ?? Uint8Array.from(classifyFixes(series, th.minSats), (c) => (c === FIX_GOOD ? 1 : 0));
   const inRth = new Uint8Array(n);
-  for (const s of opts.rthSpans ?? []) for (let i = 0; i < n; i++) if (tS[i] >= s.startS && tS[i] <= s.endS) inRth[i] = 1;
+  // One pass over the samples with a pointer into the time-ordered spans: O(n + spans).
+  const spansSorted = [...(opts.rthSpans ?? [])].sort((a, b) => a.startS - b.startS);
+  for (let i = 0, k = 0; i < n && spansSorted.length; i++) {
+    while (k < spansSorted.length && spansSorted[k].endS < tS[i]) k++;
+    for (let j = k; j < spansSorted.length && spansSorted[j].startS <= tS[i]; j++) {
+      if (tS[i] <= spansSorted[j].endS) {
+        inRth[i] = 1;
+        break;
+      }
+    }
+  }
   const dist = opts.distanceFromHome;
   const { xteM, atdM, activeLeg, legLengthM, reached, missed, next, events } = followWaypoints(series, wps, radius, usable, inRth, dist);
 

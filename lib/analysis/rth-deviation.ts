@@ -44,9 +44,16 @@ export function rthDeviation(
   const { n, tS, lat, lon } = series;
   const deviationM = new Float64Array(n).fill(NaN);
   const out: RthDeviation[] = [];
+  // Spans come in time order: each search resumes from the previous span's start (O(n) overall).
+  let cursor = 0;
   for (const { startS, endS } of spans) {
     let first = -1;
-    for (let i = 0; i < n && first < 0; i++) if (usable[i] === 1 && tS[i] >= startS && tS[i] <= endS) first = i;
+    if (!(cursor < n && tS[cursor] <= startS)) cursor = 0;
+    while (cursor < n && !(tS[cursor] >= startS)) cursor++;
+    for (let i = cursor; i < n && first < 0; i++) {
+      if (tS[i] > endS) break;
+      if (usable[i] === 1 && tS[i] >= startS) first = i;
+    }
     if (first < 0 || !home) {
       out.push({ startS, endS, from: first < 0 ? null : { lat: lat[first], lon: lon[first] }, lineLengthM: null, samples: 0, maxDeviationM: null, rmsDeviationM: null });
       continue;

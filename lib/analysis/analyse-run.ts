@@ -1,3 +1,4 @@
+import { quantileSorted } from "simple-statistics";
 import { analyseFailsafe } from "./failsafe";
 import { analyseLink } from "./link";
 import { analysePower } from "./power";
@@ -13,6 +14,15 @@ export interface AnalyseRunOptions {
   plan?: RoutePlanInput;
   /** Defaults for the build's vehicle type when absent. */
   thresholds?: Thresholds;
+}
+
+/** |x| of the finite values, sorted ascending, in a typed array (no boxed copies of a million values). */
+function absFiniteSorted(x: ArrayLike<number>): Float64Array {
+  let k = 0;
+  for (let i = 0; i < x.length; i++) if (Number.isFinite(x[i])) k++;
+  const out = new Float64Array(k);
+  for (let i = 0, j = 0; i < x.length; i++) if (Number.isFinite(x[i])) out[j++] = Math.abs(x[i]);
+  return out.sort();
 }
 
 const round = (v: number | null | undefined, digits = 2) => (v == null || !Number.isFinite(v) ? null : Number(v.toFixed(digits)));
@@ -51,10 +61,12 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     positionJumps: count("position-jump"),
     hdopWarnS: track.hdopWarnS,
   });
-  const xteAll = route ? Array.from(route.xteM).filter(Number.isFinite).map(Math.abs) : [];
-  const rms = xteAll.length ? Math.sqrt(xteAll.reduce((s, v) => s + v * v, 0) / xteAll.length) : null;
-  const sorted = [...xteAll].sort((a, b) => a - b);
-  const p95 = sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(0.95 * (sorted.length - 1)))] : null;
+  const sorted = route ? absFiniteSorted(route.xteM) : new Float64Array(0);
+  let sq = 0;
+  for (let i = 0; i < sorted.length; i++) sq += sorted[i] * sorted[i];
+  const rms = sorted.length ? Math.sqrt(sq / sorted.length) : null;
+  // simple-statistics types its input as number[]; a Float64Array works the same at run time.
+  const p95 = sorted.length ? quantileSorted(sorted as unknown as number[], 0.95) : null;
 
   const summary = {
     durationS: series.n ? round(series.tS[series.n - 1] - series.tS[0], 3) : 0,

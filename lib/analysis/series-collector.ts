@@ -18,9 +18,21 @@ export class SeriesCollector {
   private rc: Uint16Array | null = null;
   private seg = new Uint8Array(0);
 
+  /**
+   * Sizes the arrays for about `samples` samples at once: growing by copying holds the old and the
+   * new arrays together, which for a million samples is the ingest's peak memory.
+   */
+  reserve(samples: number, withRc = false): void {
+    if (samples > this.cap || (withRc && !this.rc)) this.resize(Math.max(this.cap, Math.ceil(samples)), withRc || this.rc !== null);
+  }
+
   private grow(min: number, withRc: boolean): void {
     if (min <= this.cap && (!withRc || this.rc)) return;
-    const cap = Math.max(min, this.cap * 2, 4096);
+    // 1.25× rather than 2×: less slack at the end; reserve() normally makes growth rare.
+    this.resize(Math.max(min, Math.ceil(this.cap * 1.25), 4096), withRc);
+  }
+
+  private resize(cap: number, withRc: boolean): void {
     for (const f of sampleFields) {
       const next: Column = doubleFields.has(f) ? new Float64Array(cap) : new Float32Array(cap);
       next.fill(NaN);

@@ -92,6 +92,8 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
       columnMap,
       onBatch: async (b: SampleBatch) => {
         if (b.length) lastT = b.columns.tS[b.length - 1];
+        // From the first batch's share of the bytes, size the series for the whole file once.
+        if (collector.length === 0 && b.length && bytes > 0) collector.reserve((b.length * upload.sizeBytes * 1.1) / bytes, b.rc !== null);
         collector.add(b);
         await sink.write(b);
       },

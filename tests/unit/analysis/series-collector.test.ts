@@ -47,3 +47,17 @@ describe("SeriesCollector", () => {
     expect(new SeriesCollector().series([]).n).toBe(0);
   });
 });
+
+describe("SeriesCollector.reserve", () => {
+  it("keeps every sample when the reservation was too small or too large", () => {
+    for (const reserveFor of [10, 3_000, 50_000]) {
+      const c = new SeriesCollector();
+      c.reserve(reserveFor, true);
+      for (const b of batches(3_000, 500, 100)) c.add(b);
+      const s = c.series([]);
+      expect(s.n).toBe(3_000);
+      expect(s.tS[2_999]).toBeCloseTo(299.9, 9);
+      expect(s.rc![2_999 * 18 + 2]).toBe(3_999);
+    }
+  });
+});

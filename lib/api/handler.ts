@@ -40,44 +40,36 @@ export function errorResponse(e: unknown): Response {
   return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side" } }, { status: 500 });
 }
 
-/** Parses a JSON body with a schema; a body that is not JSON is a 422 too. */
-export async function readJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
-  let body: unknown;
-  try {
-    body = await req.json();
-  } catch {
-    throw new ValidationError("The request body must be JSON");
-  }
+/** Validates an already-read body with a schema; every field's problems become one 422. */
+export function parseBody<T extends z.ZodType>(body: unknown, schema: T): z.infer<T> {
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw ValidationError.fromZod(parsed.error);
   return parsed.data;
+}
+
+async function readBody(req: Request, emptyIsObject: boolean): Promise<unknown> {
+  const text = await req.text();
+  if (emptyIsObject && !text.trim()) return {};
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new ValidationError("The request body must be JSON");
+  }
+}
+
+/** Parses a JSON body with a schema; a body that is not JSON is a 422 too. */
+export async function readJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
+  return parseBody(await readBody(req, false), schema);
+}
+
+/** As readJson, but an empty body counts as `{}`. */
+export async function readOptionalJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
+  return parseBody(await readBody(req, true), schema);
 }
 
 /** Route params that cannot name a record (e.g. a non-numeric id) are simply not found. */
 export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.infer<T> {
   const parsed = schema.safeParse(params);
   if (!parsed.success) throw new NotFoundError();
-  return parsed.data;
-}
-
-/** As readJson, but an empty body counts as `{}`. */
-export async function readOptionalJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
-  const text = await req.text();
-  let body: unknown = {};
-  if (text.trim()) {
-    try {
-      body = JSON.parse(text);
-    } catch {
-      throw new ValidationError("The request body must be JSON");
-    }
-  }
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) throw ValidationError.fromZod(parsed.error);
-  return parsed.data;
-}
-
-export function parseBody<T extends z.ZodType>(body: unknown, schema: T): z.infer<T> {
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) throw ValidationError.fromZod(parsed.error);
   return parsed.data;
 }

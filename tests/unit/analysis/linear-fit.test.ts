@@ -5,7 +5,7 @@ import { linearFit } from "@/lib/analysis/linear-fit";
  * NIST Statistical Reference Datasets, Linear Regression, "Norris" (lower difficulty, 36
  * observations, y = B0 + B1·x), https://www.itl.nist.gov/div898/strd/lls/data/Norris.shtml.
  * Certified: B1 = 1.00211681802045, B0 = -0.262323073774029, R² = 0.999993745883712.
- * The 36 points were written from memory, then compared with independent transcriptions in
+ * The 36 points were written from memory, then compared with independent copies in
  * public test suites (scipy.stats `test_nist_norris`, Apache Commons Math `SimpleRegressionTest`)
  * and found identical; a wrong point would move the certified digits, so the test checks itself.
  */

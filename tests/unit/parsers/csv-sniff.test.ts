@@ -1,20 +1,13 @@
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { parseErrorOf } from "@/tests/helpers/parse-errors";
 import { assertText, detectNewline, sniffCsv } from "@/lib/parsers/csv-sniff";
 import { ParseError } from "@/lib/parsers/types";
 
 const FIXTURES = path.resolve(process.cwd(), "tests/fixtures/csv");
 const fixture = (file: string) => fs.readFileSync(path.join(FIXTURES, file), "utf8");
-const errorOf = (f: () => unknown): ParseError => {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ParseError);
-    return e as ParseError;
-  }
-  return expect.unreachable("expected a ParseError");
-};
+const errorOf = parseErrorOf;
 
 describe("sniffCsv", () => {
   it("reads the simulator log's header, rows and column map", () => {

@@ -1,9 +1,10 @@
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { parseErrorOfAsync } from "@/tests/helpers/parse-errors";
 import type { ColumnMap } from "@/lib/parsers/column-map";
 import { parseCsv } from "@/lib/parsers/csv";
-import { ParseError, RC_CHANNELS, sampleFields, type ByteSource, type SampleBatch } from "@/lib/parsers/types";
+import { RC_CHANNELS, sampleFields, type ByteSource, type SampleBatch } from "@/lib/parsers/types";
 import { byteChunks, chunksOf, collectSamples, textChunks } from "@/tests/helpers/byte-source";
 
 const FIXTURES = path.resolve(process.cwd(), "tests/fixtures/csv");
@@ -14,10 +15,7 @@ async function run(input: string | Uint8Array, opts: { columnMap?: ColumnMap; ba
   const summary = await parseCsv(byteChunks(input, chunk), { onBatch, ...opts });
   return { summary, s: samples.columns, samples };
 }
-const errorOf = (p: Promise<unknown>) => p.then(() => expect.unreachable("expected a ParseError"), (e) => {
-  expect(e).toBeInstanceOf(ParseError);
-  return e as ParseError;
-});
+const errorOf = parseErrorOfAsync;
 const warningOf = (summary: { warnings: { code: string }[] }, code: string) => summary.warnings.find((w) => w.code === code);
 
 /**

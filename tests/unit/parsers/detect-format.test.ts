@@ -1,25 +1,19 @@
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { GPX_REFERENCE_DIR, parseErrorOf } from "@/tests/helpers/parse-errors";
+
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { ParseError } from "@/lib/parsers/types";
 
-const GPX_DIR = path.resolve(process.cwd(), "../shared/reference/gpx");
+const GPX_DIR = GPX_REFERENCE_DIR;
 const head = (file: string) => fs.readFileSync(path.join(GPX_DIR, file), "utf8").slice(0, 64 * 1024);
 
 // Dale DePriest, "NMEA data" (gpsinformation.org), quoted from memory.
 const GGA = "$GPGGA,123519,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,*47";
 const RMC = "$GPRMC,123519,A,4807.038,N,01131.000,E,022.4,084.4,230394,003.1,W*6A";
 
-function errorOf(fn: () => unknown): ParseError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof ParseError) return e;
-    throw e;
-  }
-  throw new Error("expected a ParseError");
-}
+const errorOf = parseErrorOf;
 
 describe("detectFormat", () => {
   it("recognises every reference GPX file by content, whatever its name", () => {

@@ -2,21 +2,15 @@ import fs from "node:fs";
 import path from "node:path";
 import { XMLParser } from "fast-xml-parser";
 import { describe, expect, it } from "vitest";
+import { GPX_REFERENCE_DIR, parseErrorOf } from "@/tests/helpers/parse-errors";
+
 import { parseGpxRoutePlan } from "@/lib/parsers/gpx";
 import { ParseError } from "@/lib/parsers/types";
 
-const GPX_DIR = path.resolve(process.cwd(), "../shared/reference/gpx");
+const GPX_DIR = GPX_REFERENCE_DIR;
 const readRef = (file: string) => fs.readFileSync(path.join(GPX_DIR, file), "utf8");
 
-function errorOf(fn: () => unknown): ParseError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof ParseError) return e;
-    throw e;
-  }
-  throw new Error("expected a ParseError");
-}
+const errorOf = parseErrorOf;
 
 /** Independent reading with fast-xml-parser of a list of point elements under the <gpx> root. */
 function independentPoints(xml: string, pick: (gpx: Record<string, unknown>) => unknown) {

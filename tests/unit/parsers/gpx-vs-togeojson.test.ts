@@ -9,10 +9,11 @@ import path from "node:path";
 import { gpx as toGeoJson } from "@tmcw/togeojson";
 import { DOMParser } from "@xmldom/xmldom";
 import { describe, expect, it } from "vitest";
+import { GPX_REFERENCE_DIR } from "@/tests/helpers/parse-errors";
 import { parseGpx } from "@/lib/parsers/gpx";
 import { byteChunks, collectSamples } from "@/tests/helpers/byte-source";
 
-const GPX_DIR = path.resolve(process.cwd(), "../shared/reference/gpx");
+const GPX_DIR = GPX_REFERENCE_DIR;
 
 const files = ["gpxpy_cerknicko-jezero.gpx", "georust-gpx_with_accuracy.gpx", "georust-gpx_garmin_with_extensions.gpx", "gpxpy_track-with-less-sec-time.gpx", "georust-gpx_garmin-activity.gpx", "gpxpy_around-visnjan-with-car.gpx"];
 

@@ -3,11 +3,12 @@ import os from "node:os";
 import path from "node:path";
 import { XMLParser } from "fast-xml-parser";
 import { afterAll, afterEach, describe, expect, it, vi } from "vitest";
+import { GPX_REFERENCE_DIR, parseErrorOfAsync } from "@/tests/helpers/parse-errors";
 import { parseGpx, type GpxParseOptions } from "@/lib/parsers/gpx";
 import { ParseError, type ParseSummary } from "@/lib/parsers/types";
 import { byteChunks, collectSamples } from "@/tests/helpers/byte-source";
 
-const GPX_DIR = path.resolve(process.cwd(), "../shared/reference/gpx");
+const GPX_DIR = GPX_REFERENCE_DIR;
 const readRef = (file: string) => fs.readFileSync(path.join(GPX_DIR, file), "utf8");
 
 async function run(text: string, opts: Partial<GpxParseOptions> = {}, chunk = 4096) {
@@ -16,7 +17,7 @@ async function run(text: string, opts: Partial<GpxParseOptions> = {}, chunk = 40
   return { summary, s: samples.columns, samples };
 }
 const warning = (summary: ParseSummary, code: string) => summary.warnings.find((w) => w.code === code);
-const errorOf = (p: Promise<unknown>) => p.then(() => expect.unreachable("expected a ParseError"), (e) => e as ParseError);
+const errorOf = parseErrorOfAsync;
 
 /**
  * Independent reading of the track with fast-xml-parser (a plain XML parser, neither xmldom nor

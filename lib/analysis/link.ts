@@ -55,14 +55,16 @@ const minOver = (a: ArrayLike<number>, from: number, to: number) => {
 
 /** Median spacing of the samples that carry `m`, s; 0 with fewer than two. */
 function typicalIntervalS(tS: ArrayLike<number>, m: ArrayLike<number>): number {
-  const steps: number[] = [];
+  // Typed, not a JS array: a million-sample run would otherwise put 8+ MB on the JS heap per list.
+  const steps = new Float64Array(m.length);
+  let k = 0;
   let prev = -1;
   for (let i = 0; i < m.length; i++) {
     if (!Number.isFinite(m[i]) || !Number.isFinite(tS[i])) continue;
-    if (prev >= 0) steps.push(tS[i] - tS[prev]);
+    if (prev >= 0) steps[k++] = tS[i] - tS[prev];
     prev = i;
   }
-  return steps.length ? quantileSorted(steps.sort((a, b) => a - b), 0.5) : 0;
+  return k ? quantileSorted(steps.subarray(0, k).sort() as unknown as number[], 0.5) : 0;
 }
 
 /** Merges spans that overlap or touch (one ends where the next starts), recording their causes. */
@@ -161,19 +163,20 @@ export function analyseLink(series: RunSeries, th: Thresholds, build?: BuildConf
     ),
   ].sort((a, b) => a.startS - b.startS);
 
-  const values: number[] = [];
+  const all = new Float64Array(n);
+  let count = 0;
   let timeBelowThresholdS = 0;
   let prev = -1;
   let gap = false; // a reception gap since the previous value: its time is not claimed
   for (let i = 0; i < n; i++) {
     gap ||= breakBefore(i);
     if (!has(i) || !Number.isFinite(tS[i])) continue;
-    values.push(m[i]);
+    all[count++] = m[i];
     if (prev >= 0 && !gap && m[prev] < fadeThreshold!) timeBelowThresholdS += tS[i] - tS[prev];
     prev = i;
     gap = false;
   }
-  values.sort((a, b) => a - b);
+  const values = all.subarray(0, count).sort() as unknown as number[]; // typed sort: numeric order
   const q = (p: number) => (values.length ? quantileSorted(values, p) : null);
 
   return {

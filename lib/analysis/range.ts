@@ -98,8 +98,9 @@ export function estimateRange(
     throw new Error("estimateRange requires finite sensitivityDbm and fadeMarginDb");
   }
 
-  const logD: number[] = [];
-  const rssi: number[] = [];
+  const logAll = new Float64Array(len);
+  const rssiAll = new Float64Array(len);
+  let used = 0;
   let nearestM = Infinity;
   let farthestM = -Infinity;
   for (let i = 0; i < len; i++) {
@@ -107,11 +108,13 @@ export function estimateRange(
     const p = rssiDbm[i];
     if (!Number.isFinite(p) || !Number.isFinite(d) || !(d > minDistanceM) || !(d > 0)) continue;
     if (linked && linked[i] !== 1) continue;
-    logD.push(Math.log10(d));
-    rssi.push(p);
+    logAll[used] = Math.log10(d);
+    rssiAll[used++] = p;
     if (d < nearestM) nearestM = d;
     if (d > farthestM) farthestM = d;
   }
+  const logD = logAll.subarray(0, used);
+  const rssi = rssiAll.subarray(0, used);
   if (rssi.length < RANGE_MIN_SAMPLES) {
     return { estimate: null, reason: `Too few linked RSSI samples beyond ${minDistanceM} m: ${rssi.length}, need ${RANGE_MIN_SAMPLES}` };
   }

@@ -14,7 +14,8 @@ type Column = Float64Array | Float32Array;
 export class SeriesCollector {
   private cap = 0;
   private n = 0;
-  private cols = {} as Record<SampleField, Column>;
+  /** Only fields that have carried a value get a column; the rest read as one shared NaN array. */
+  private cols = {} as Partial<Record<SampleField, Column>>;
   private rc: Uint16Array | null = null;
   private seg = new Uint8Array(0);
 
@@ -32,11 +33,17 @@ export class SeriesCollector {
     this.resize(Math.max(min, Math.ceil(this.cap * 1.25), 4096), withRc);
   }
 
+  private column(f: SampleField, cap: number): Column {
+    const next: Column = doubleFields.has(f) ? new Float64Array(cap) : new Float32Array(cap);
+    return next.fill(NaN);
+  }
+
   private resize(cap: number, withRc: boolean): void {
     for (const f of sampleFields) {
-      const next: Column = doubleFields.has(f) ? new Float64Array(cap) : new Float32Array(cap);
-      next.fill(NaN);
-      if (this.cols[f]) next.set(this.cols[f].subarray(0, this.n));
+      const old = this.cols[f];
+      if (!old) continue;
+      const next = this.column(f, cap);
+      next.set(old.subarray(0, this.n));
       this.cols[f] = next;
     }
     const seg = new Uint8Array(cap);
@@ -52,7 +59,15 @@ export class SeriesCollector {
 
   add(batch: SampleBatch): void {
     this.grow(this.n + batch.length, batch.rc !== null);
-    for (const f of sampleFields) this.cols[f].set(batch.columns[f].subarray(0, batch.length), this.n);
+    for (const f of sampleFields) {
+      const values = batch.columns[f].subarray(0, batch.length);
+      let col = this.cols[f];
+      if (!col) {
+        if (!values.some((v) => v === v)) continue;
+        col = this.cols[f] = this.column(f, this.cap);
+      }
+      col.set(values, this.n);
+    }
     this.seg.set(batch.segmentStart.subarray(0, batch.length), this.n);
     if (batch.rc && this.rc) this.rc.set(batch.rc.subarray(0, batch.length * RC_CHANNELS), this.n * RC_CHANNELS);
     this.n += batch.length;
@@ -64,7 +79,8 @@ export class SeriesCollector {
 
   series(modeNames: string[]): RunSeries {
     const n = this.n;
-    const c = (f: SampleField) => (this.cols[f] ? this.cols[f].subarray(0, n) : new Float64Array(0));
+    let none: Float32Array | null = null;
+    const c = (f: SampleField) => this.cols[f]?.subarray(0, n) ?? (none ??= new Float32Array(n).fill(NaN));
     return {
       n,
       tS: c("tS"), lat: c("lat"), lon: c("lon"), altM: c("altM"), speedMps: c("speedMps"), headingDeg: c("headingDeg"),

@@ -4,8 +4,10 @@ import { encodeRows } from "./encode-rows";
 import { TSV_KINDS, batchArrays, batchToTsv } from "./sample-tsv";
 
 // The worker runs encodeRows from its own source text: no bundler or file path involved.
+// __name: some transpilers (esbuild's keepNames, used by tsx) wrap inner functions in it.
 const workerSource = `
 const { parentPort } = require("node:worker_threads");
+const __name = (f) => f;
 const encodeRows = ${encodeRows.toString()};
 parentPort.on("message", (m) => {
   const out = encodeRows(m.runId, m.firstSeq, m.n, m.arrays, m.kinds, m.rc, m.rcChannels);

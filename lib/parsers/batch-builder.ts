@@ -58,6 +58,33 @@ export class BatchBuilder {
     this.hasRc = true;
   }
 
+  /**
+   * Direct access for a parser's hot loop: the current sample's index and the batch's columns
+   * (NaN-filled). Whoever writes here calls `markPresent` for a field's first real value.
+   */
+  get index(): number {
+    return this.i;
+  }
+
+  get columns(): Record<SampleField, Float64Array> {
+    return this.batch.columns;
+  }
+
+  /** RC values of the current batch, row-major; null when built without RC. */
+  get rcValues(): Uint16Array | null {
+    return this.batch.rc;
+  }
+
+  markPresent(field: SampleField): void {
+    if (this.seen[field]) return;
+    this.seen[field] = true;
+    this.present.add(field);
+  }
+
+  markRc(): void {
+    this.hasRc = this.batch.rc !== null;
+  }
+
   commit(): void {
     this.batch.length = this.i + 1;
   }

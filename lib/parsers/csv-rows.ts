@@ -2,12 +2,28 @@ import type { BatchBuilder } from "./batch-builder";
 import { csvFieldSpec, unitOf, type ColumnMap, type CsvField } from "./column-map";
 import { altitudeToM, currentToA, headingTo360, parseFlag, parseNumber, pwmToPct, speedToMps } from "./csv-values";
 import { TimeReader } from "./csv-time";
-import { ParseError, RC_CHANNELS, sampleFields, type SampleField } from "./types";
+import { ParseError, RC_CHANNELS, type SampleField } from "./types";
 import { WarningLog } from "./warnings";
 
 const TIME_EXPECTED = "seconds, milliseconds, ISO 8601 or hh:mm:ss";
 /** A mode column with more distinct texts than this is not a mode column. */
 const MAX_MODES = 1000;
+
+/** How a column's text becomes a sample value; decided once per column, not per cell. */
+const enum Kind {
+  Plain,
+  Alt,
+  Speed,
+  Heading,
+  Current,
+  RssiPct,
+  RssiPwm,
+  Rc,
+  Mode,
+  Flag,
+  Lat,
+  Lon,
+}
 
 interface Slot {
   index: number;
@@ -15,11 +31,49 @@ interface Slot {
   field: CsvField;
   unit: string | undefined;
   seen: boolean;
+  kind: Kind;
+  /** The sample field written (unused for RC channels). */
+  target: SampleField;
+  /** 0-based RC channel for Kind.Rc. */
+  channel: number;
 }
 
 const direct: Partial<Record<CsvField, SampleField>> = {
   sats: "sats", hdop: "hdop", fix: "fixType", lq: "lqPct", snr: "snrDb", voltage: "voltageV", usedMah: "usedMah",
 };
+
+function kindOf(field: CsvField, unit: string | undefined): { kind: Kind; target: SampleField; channel: number } {
+  const plain = direct[field];
+  if (plain) return { kind: Kind.Plain, target: plain, channel: 0 };
+  switch (field) {
+    case "lat": return { kind: Kind.Lat, target: "lat", channel: 0 };
+    case "lon": return { kind: Kind.Lon, target: "lon", channel: 0 };
+    case "alt": return { kind: Kind.Alt, target: "altM", channel: 0 };
+    case "speed": return { kind: Kind.Speed, target: "speedMps", channel: 0 };
+    case "heading": return { kind: Kind.Heading, target: "headingDeg", channel: 0 };
+    case "current": return { kind: Kind.Current, target: "currentA", channel: 0 };
+    case "rssi":
+      if (unit === "dBm") return { kind: Kind.Plain, target: "rssiDbm", channel: 0 };
+      return { kind: unit === "pwm" ? Kind.RssiPwm : Kind.RssiPct, target: "rssiPct", channel: 0 };
+    case "mode": return { kind: Kind.Mode, target: "modeIndex", channel: 0 };
+    case "armed": return { kind: Kind.Flag, target: "armed", channel: 0 };
+    case "failsafe": return { kind: Kind.Flag, target: "failsafe", channel: 0 };
+    default:
+      if (/^rc\d+$/.test(field)) return { kind: Kind.Rc, target: "tS", channel: Number(field.slice(2)) - 1 };
+      throw new Error(`no conversion for column field ${field}`);
+  }
+}
+
+function convert(kind: Kind, n: number, unit: string | undefined): number {
+  switch (kind) {
+    case Kind.Alt: return altitudeToM(n, unit);
+    case Kind.Speed: return speedToMps(n, unit);
+    case Kind.Heading: return headingTo360(n);
+    case Kind.Current: return currentToA(n, unit);
+    case Kind.RssiPwm: return pwmToPct(n);
+    default: return n;
+  }
+}
 
 /**
  * Turns the data records of one CSV log into samples, converting each mapped column into the
@@ -44,8 +98,8 @@ export class CsvRowReader {
   private readonly lon?: Slot;
   private readonly times: TimeReader;
   private readonly modeIndex = new Map<string, number>();
-  private readonly v = {} as Record<SampleField, number>;
-  private readonly rc = new Uint16Array(RC_CHANNELS);
+  /** Held on the instance: a module import is read through a getter on every call once bundled. */
+  private readonly parse = parseNumber;
   private prevT = NaN;
 
   constructor(
@@ -68,12 +122,13 @@ export class CsvRowReader {
         this.warnings.add("missing-column", `The column map names "${c.header}" (${csvFieldSpec(c.field).label}) but the file has no such column`, 1, c.header);
         continue;
       }
-      const slot: Slot = { index, header: c.header, field: c.field, unit: unitOf(c), seen: false };
+      const unit = unitOf(c);
+      const slot: Slot = { index, header: c.header, field: c.field, unit, seen: false, ...(c.field === "time" ? { kind: Kind.Plain, target: "tS", channel: 0 } : kindOf(c.field, unit)) };
       if (c.field !== "time") this.slots.push(slot);
       if (c.field === "lat") this.lat = slot;
       if (c.field === "lon") this.lon = slot;
     }
-    this.time = { index: indexOf.get(timeCol.header.trim())!, header: timeCol.header, field: "time", unit: unitOf(timeCol), seen: false };
+    this.time = { index: indexOf.get(timeCol.header.trim())!, header: timeCol.header, field: "time", unit: unitOf(timeCol), seen: false, kind: Kind.Plain, target: "tS", channel: 0 };
     this.times = new TimeReader(this.time.unit ?? "s", decimal);
   }
 
@@ -105,68 +160,67 @@ export class CsvRowReader {
     else if (t === this.prevT) this.warnings.add("duplicate-time", "Two rows have the same time", line, this.time.header);
     this.prevT = t;
 
-    for (const f of sampleFields) this.v[f] = NaN;
-    this.rc.fill(0);
-    this.v.tS = t;
+    // Written straight into the batch (NaN-filled): this loop runs once per cell of the file.
+    const b = this.builder;
+    b.begin(line, this.samples === 0);
+    const cols = b.columns;
+    const i = b.index;
+    cols.tS[i] = t;
+    b.markPresent("tS");
     let badCoordinate = false;
-    for (const s of this.slots) {
-      const text = fields[s.index].trim();
+    const slots = this.slots;
+    for (let k = 0; k < slots.length; k++) {
+      const s = slots[k];
+      const raw = fields[s.index];
+      const text = raw.length && (raw.charCodeAt(0) <= 32 || raw.charCodeAt(raw.length - 1) <= 32) ? raw.trim() : raw;
       if (text === "") continue;
       s.seen = true;
-      if (s.field === "mode") {
-        this.v.modeIndex = this.mode(text, line, s);
+      const kind = s.kind;
+      if (kind === Kind.Mode) {
+        const m = this.mode(text, line, s);
+        cols.modeIndex[i] = m;
+        if (m === m) b.markPresent("modeIndex");
         continue;
       }
-      if (s.field === "armed" || s.field === "failsafe") {
+      if (kind === Kind.Flag) {
         const flag = parseFlag(text);
         if (flag === null) this.warnings.add("not-a-flag", `Expected 1/0, true/false, yes/no, on/off or armed/disarmed, found ${JSON.stringify(text)}`, line, s.header);
-        else this.v[s.field] = flag;
+        else (cols[s.target][i] = flag), b.markPresent(s.target);
         continue;
       }
-      const n = parseNumber(text, this.decimal);
+      const n = this.parse(text, this.decimal);
       if (n === null) {
         this.warnings.add("not-a-number", `Expected a number, found ${JSON.stringify(text)}`, line, s.header);
         continue;
       }
-      if (!Number.isFinite(n)) {
-        if (s === this.lat || s === this.lon) badCoordinate = true;
-        else if (!Number.isNaN(n)) this.warnings.add("out-of-range", `Found ${text}; the value is dropped`, line, s.header);
+      if (n - n !== 0) {
+        if (kind === Kind.Lat || kind === Kind.Lon) badCoordinate = true;
+        else if (n === n) this.warnings.add("out-of-range", `Found ${text}; the value is dropped`, line, s.header);
         continue;
       }
-      this.store(s, n, line);
+      if (kind === Kind.Rc) this.storeRc(s, n, line, i);
+      else if (kind === Kind.Lat || kind === Kind.Lon) cols[s.target][i] = n; // presence after the position check
+      else {
+        cols[s.target][i] = convert(kind, n, s.unit);
+        b.markPresent(s.target);
+      }
     }
-    if (this.lat && this.lon) this.checkPosition(badCoordinate, line);
-
-    const b = this.builder;
-    b.begin(line, this.samples === 0);
-    for (const f of sampleFields) b.set(f, this.v[f]);
-    for (let ch = 0; ch < RC_CHANNELS; ch++) if (this.rc[ch]) b.setRc(ch + 1, this.rc[ch]);
+    if (this.lat && this.lon) this.checkPosition(cols, i, badCoordinate, line);
     b.commit();
     this.samples++;
     return true;
   }
 
-  private store(s: Slot, n: number, line: number): void {
-    const v = this.v;
-    const to = direct[s.field];
-    if (to) v[to] = n;
-    else if (s.field === "lat") v.lat = n;
-    else if (s.field === "lon") v.lon = n;
-    else if (s.field === "alt") v.altM = altitudeToM(n, s.unit);
-    else if (s.field === "speed") v.speedMps = speedToMps(n, s.unit);
-    else if (s.field === "heading") v.headingDeg = headingTo360(n);
-    else if (s.field === "current") v.currentA = currentToA(n, s.unit);
-    else if (s.field === "rssi") {
-      if (s.unit === "dBm") v.rssiDbm = n;
-      else v.rssiPct = s.unit === "pwm" ? pwmToPct(n) : n;
-    } else if (s.field.startsWith("rc")) {
-      if (n >= 0 && n <= 65535) this.rc[Number(s.field.slice(2)) - 1] = Math.round(n);
-      else this.warnings.add("out-of-range", `Expected an RC pulse width in µs, found ${n}`, line, s.header);
-    }
+  private storeRc(s: Slot, n: number, line: number, i: number): void {
+    const rc = this.builder.rcValues;
+    if (n >= 0 && n <= 65535) {
+      if (rc) (rc[i * RC_CHANNELS + s.channel] = Math.round(n)), this.builder.markRc();
+    } else this.warnings.add("out-of-range", `Expected an RC pulse width in µs, found ${n}`, line, s.header);
   }
 
-  private checkPosition(badCoordinate: boolean, line: number): void {
-    const { lat, lon } = this.v;
+  private checkPosition(cols: Record<SampleField, Float64Array>, i: number, badCoordinate: boolean, line: number): void {
+    const lat = cols.lat[i];
+    const lon = cols.lon[i];
     let why = "";
     let column = this.lat!.header;
     if (badCoordinate) why = "a coordinate is NaN or infinite";
@@ -174,7 +228,8 @@ export class CsvRowReader {
     else if (Math.abs(lon) > 180) (why = `longitude ${lon} is outside ±180°`), (column = this.lon!.header);
     else if (lat === 0 && lon === 0) why = "the position is exactly 0,0 (no fix)";
     if (why) this.warnings.add("out-of-range", `${why[0].toUpperCase()}${why.slice(1)}; the position is dropped`, line, column);
-    if (why || Number.isNaN(lat) || Number.isNaN(lon)) this.v.lat = this.v.lon = NaN;
+    if (why || Number.isNaN(lat) || Number.isNaN(lon)) cols.lat[i] = cols.lon[i] = NaN;
+    else this.builder.markPresent("lat"), this.builder.markPresent("lon");
   }
 
   private mode(text: string, line: number, s: Slot): number {

@@ -114,9 +114,12 @@ async function parseText(it: AsyncIterator<string>, opts: CsvParseOptions): Prom
     const rows = Papa.parse<string[]>(block, { delimiter, newline, quoteChar: '"', skipEmptyLines: false }).data;
     // papaparse returns an empty last row for the line break that ends the block.
     if (!final && rows.length && rows[rows.length - 1].length === 1 && rows[rows.length - 1][0] === "") rows.pop();
+    // Without quotes no field can hold a line break of the file's own kind; a stray CR or LF of
+    // the other kind still counts as a line, as RecordSplitter counts it.
+    const plain = block.indexOf('"') < 0 && (newline === "\r\n" ? false : block.indexOf(newline === "\n" ? "\r" : "\n") < 0);
     for (const row of rows) {
       const at = line;
-      line += 1 + extraLines(row);
+      line += plain ? 1 : 1 + extraLines(row);
       if (!reader) {
         if (row.length === 1 && row[0].trim() === "") continue;
         headers = row.map((h) => h.trim());

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { linearRegression, linearRegressionLine, rSquared } from "simple-statistics";
 import { linearFit } from "@/lib/analysis/linear-fit";
 
 /*
@@ -87,5 +88,20 @@ describe("linearFit", () => {
 
   it("throws when x and y differ in length", () => {
     expect(() => linearFit([1, 2, 3], [1, 2])).toThrow(/equal length/);
+  });
+
+  it("agrees with simple-statistics' linearRegression and rSquared on noisy path-loss-like data", () => {
+    // Reference library from the registry, used as an oracle; the data is a log-distance line
+    // with pseudo-random scatter (a seeded LCG), large x offsets included.
+    let seed = 99;
+    const rand = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    const x = Array.from({ length: 5000 }, () => 1 + 3 * rand());
+    const y = x.map((v) => -40 - 27 * v + 8 * (rand() - 0.5));
+    const pairs = x.map((v, i) => [v, y[i]]);
+    const ref = linearRegression(pairs);
+    const fit = linearFit(x, y);
+    expect(fit.slope).toBeCloseTo(ref.m, 9);
+    expect(fit.intercept).toBeCloseTo(ref.b, 9);
+    expect(fit.r2).toBeCloseTo(rSquared(pairs, linearRegressionLine(ref)), 9);
   });
 });

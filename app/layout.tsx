@@ -1,5 +1,7 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { cookies } from "next/headers";
+import { FIELD_MODE_COOKIE } from "@/components/ui/field-mode";
 import "./globals.css";
 
 const body = localFont({
@@ -33,9 +35,11 @@ export const viewport: Viewport = {
   themeColor: "#0d5c63",
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Rendered on the server from the cookie, so field mode is there from the first paint.
+  const fieldMode = (await cookies()).get(FIELD_MODE_COOKIE)?.value === "on";
   return (
-    <html lang="en" className={`${body.variable} ${figures.variable}`}>
+    <html lang="en" className={`${body.variable} ${figures.variable}`} data-field-mode={fieldMode ? "on" : undefined}>
       <body className="min-h-dvh font-sans">{children}</body>
     </html>
   );

@@ -23,6 +23,9 @@ const envSchema = z.object({
   /** Files from this size go up in parts (S3 multipart); parts are at least 5 MiB, as S3 requires. */
   UPLOAD_MULTIPART_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
   UPLOAD_PART_BYTES: z.coerce.number().int().min(5 * 1024 * 1024).default(64 * 1024 * 1024),
+  /** Map tiles for the debrief, an XYZ URL template ({z}/{x}/{y}); empty = no tiles (a plain grid, works offline). */
+  MAP_TILE_URL: z.string().regex(/^https?:\/\/.*\{z\}.*\{x\}.*\{y\}/, "must be an http(s) URL template with {z}, {x} and {y}").optional().or(z.literal("").transform(() => undefined)),
+  MAP_TILE_ATTRIBUTION: z.string().max(300).optional(),
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(8),
   LOGIN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
 });

@@ -7,3 +7,4 @@ export * from "./runs";
 export * from "./column-maps";
 export * from "./share-links";
 export * from "./audit";
+export * from "./series";

@@ -30,7 +30,8 @@ const round = (v: number | null | undefined, digits = 2) => (v == null || !Numbe
 /**
  * The whole analysis of one run: track first (home, distance from home per sample), then link,
  * failsafe, route, power and range, then the verdict. Pure; one pass per module over the arrays.
- * @returns `summary` (the figures of the debrief, SI units) and `events` sorted by start time
+ * @returns `summary` (the figures of the debrief, SI units), `events` sorted by start time, and
+ *   `perSample` derived arrays (distance from home, m; cross-track error, m, null without a plan)
  * @example analyseRun(series, { build, plan }).summary.verdict // => { level: "act", reasons: ["Link lost once", …] }
  */
 export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
@@ -118,12 +119,18 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
           farthestM: round(range.estimate.farthestM, 0),
           samples: range.estimate.samples,
           label: range.estimate.label,
+          // For the range chart: the fitted line, the level it runs out at, and the free-space reference.
+          p0Dbm: round(range.estimate.p0Dbm, 1),
+          thresholdDbm: round(range.estimate.thresholdDbm, 1),
+          freeSpaceRangeM: round(range.estimate.freeSpace?.rangeM ?? null, 0),
         }
       : { pathLossExponent: null, r2: null, estimatedRangeM: null, reason: range.reason },
     verdict,
     thresholds: th,
   };
-  return { summary, events };
+  // Per-sample values the display levels store beside the samples (lib/series); not part of the summary.
+  const perSample = { distanceFromHomeM: fromHome, xteM: route ? route.xteM : null };
+  return { summary, events, perSample };
 }
 
 export type RunAnalysis = ReturnType<typeof analyseRun>;

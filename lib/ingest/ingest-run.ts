@@ -11,6 +11,8 @@ import { columnMapSchema } from "@/lib/parsers/column-map";
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { parseLog } from "@/lib/parsers/parse-log";
 import { ParseError, type SampleBatch } from "@/lib/parsers/types";
+import { seriesBlobs } from "@/lib/series/levels";
+import { deleteSeriesLevels, writeSeriesLevels } from "@/lib/series/store";
 import { readObject } from "@/lib/storage/objects";
 import { countingSource, peek } from "./byte-source";
 import { loadAnalysisInputs } from "./analysis-inputs";
@@ -86,6 +88,7 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
     await conn.beginTransaction();
     await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
     await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
+    await deleteSeriesLevels(conn, runId);
     load = startSampleLoad(conn, runId);
     const sink = load;
     const summary = await parseLog(format, source, {
@@ -106,12 +109,15 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
     await progressWrite;
     const warnings: RunWarning[] = summary.warnings.map((w) => ({ ...w }));
     await db().update(runs).set({ status: "analysing" }).where(eq(runs.id, runId));
-    const analysis = analyseRun(collector.series(summary.modeNames), inputs);
+    const series = collector.series(summary.modeNames);
+    const analysis = analyseRun(series, inputs);
     const tx = drizzle(conn as never, { schema, mode: "default", casing: "snake_case" });
     for (let i = 0; i < analysis.events.length; i += 500) {
       await tx.insert(events).values(analysis.events.slice(i, i + 500).map((e) => eventRow(runId, e)));
     }
-    // Samples, events and the run's new state commit together.
+    // Display levels for the charts and the map, from the same arrays (lib/series/levels.ts).
+    await writeSeriesLevels(conn, runId, seriesBlobs(series, analysis.perSample));
+    // Samples, events, levels and the run's new state commit together.
     await tx
       .update(runs)
       .set({
@@ -143,6 +149,7 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
     // A failed run has no samples, also when a re-parse fails after an earlier good parse.
     await conn?.query("DELETE FROM samples WHERE run_id = ?", [runId]).catch(() => {});
     await conn?.query("DELETE FROM events WHERE run_id = ?", [runId]).catch(() => {});
+    if (conn) await deleteSeriesLevels(conn, runId).catch(() => {});
     await db()
       .update(runs)
       .set({ status: "failed", progress: 0, error: describeFailure(e), sampleCount: 0 })

@@ -1,26 +1,35 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { formatBytes, formatDuration } from "@/components/runs/format-bytes";
+import { RangeChart } from "@/components/charts/range-chart";
+import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
+import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
+import { formatBytes } from "@/components/runs/format-bytes";
 import { ReparseButton } from "@/components/runs/reparse-button";
 import { RunStatusPoller } from "@/components/runs/run-status-poller";
 import { runStatusText } from "@/components/runs/run-status-text";
-import { PageHeader } from "@/components/ui/page-header";
+import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
+import { SafetyNote } from "@/components/ui/safety-note";
 import { getCrewPageContext } from "@/lib/auth/page-context";
+import { can } from "@/lib/auth/roles";
+import { env } from "@/lib/env";
 import { NotFoundError } from "@/lib/errors";
-import { viewRun, type RunView } from "@/lib/ingest/runs";
+import { formatDistance, formatSpan } from "@/lib/format/units";
+import { loadDebrief, type Debrief } from "@/lib/runs/debrief";
 import { idSchema } from "@/lib/validations/crew";
 import { ColumnMapEditor } from "./column-map-editor";
+import { NoteForm } from "./note-form";
+import { SignOffForm } from "./sign-off-form";
 
-export const metadata: Metadata = { title: "Run" };
+export const metadata: Metadata = { title: "Debrief" };
 
-async function loadRun(raw: string): Promise<{ run: RunView; mayEdit: boolean }> {
+async function load(raw: string): Promise<Debrief & { role: string }> {
   const id = idSchema.safeParse(raw);
   if (!id.success) notFound();
   const { actor } = await getCrewPageContext();
   try {
-    const run = await viewRun(actor, id.data);
-    return { run, mayEdit: run.mayEdit };
+    const d = await loadDebrief(actor, id.data);
+    return { ...d, role: d.run.viewerRole };
   } catch (e) {
     if (e instanceof NotFoundError) notFound();
     throw e;
@@ -40,45 +49,89 @@ function carries(summary: Record<string, unknown> | null): string {
   return words.length ? words.join(", ") : "—";
 }
 
+const utc = (d: Date) => d.toISOString().replace("T", " ").slice(0, 16) + " UTC";
 
-export default async function RunPage({ params }: { params: Promise<{ runId: string }> }) {
-  const { run, mayEdit } = await loadRun((await params).runId);
-  const figures = [
-    { label: "Status", value: runStatusText[run.status] ?? run.status },
-    { label: "Format", value: run.format ? run.format.toUpperCase() : "—" },
-    { label: "Samples", value: run.sampleCount.toLocaleString("en") },
-    { label: "Duration", value: formatDuration(run.durationS) },
-    { label: "Started", value: run.startedAt ? run.startedAt.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "not in the log" },
-    { label: "Original", value: `${run.upload.fileName} (${formatBytes(run.upload.sizeBytes)})` },
-  ];
-  const carried = run.status === "ready" ? carries(run.summary) : null;
-  const verdict = (run.summary?.verdict as { level: string; reasons: string[] } | undefined) ?? null;
+const verdictLook = {
+  act: { title: "Act before the next run", cls: "border-act", mark: "■" },
+  watch: { title: "Watch", cls: "border-watch", mark: "▲" },
+  clear: { title: "Clear", cls: "border-clear", mark: "●" },
+} as const;
+
+export default async function DebriefPage({ params }: { params: Promise<{ runId: string }> }) {
+  const d = await load((await params).runId);
+  const { run, units } = d;
+  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: keyof typeof verdictLook; reasons: string[] }; fieldsPresent?: string[] };
+  const ready = run.status === "ready";
+  const verdict = ready ? (summary.verdict ?? null) : null;
+  const look = verdict ? verdictLook[verdict.level] : null;
+  const mayNote = can(d.role as never, "writeNote");
+  const maySign = can(d.role as never, "signOff");
+  const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
+  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
+  const range = summary.range;
+  const failsafeExercised = summary.failsafe && summary.failsafe.result !== "not-tested";
+
   return (
     <>
-      <PageHeader title={run.title} lead={run.upload.note ?? undefined}>
-        <a href={`/api/runs/${run.id}/original`} className="btn-quiet">
-          Download the original
-        </a>
-        {mayEdit && run.status !== "queued" && run.status !== "parsing" && <ReparseButton runId={run.id} />}
-      </PageHeader>
-      <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} />
-      {run.status === "ready" && verdict && (
-        <section
-          aria-label="Verdict"
-          className={`mb-6 rounded-lg border-l-8 bg-card p-4 ${verdict.level === "act" ? "border-act" : verdict.level === "watch" ? "border-watch" : "border-clear"}`}
-        >
-          <p className="text-lg font-bold">
-            {verdict.level === "act" ? "Act before the next run" : verdict.level === "watch" ? "Watch" : "Clear"}
+      <header className="mb-4 flex flex-col gap-3 border-b border-rule pb-4 sm:flex-row sm:items-end sm:justify-between">
+        <div className="min-w-0">
+          <p className="text-sm text-ink-soft">
+            <Link href="/runs" className="text-tide-700 underline">
+              Runs
+            </Link>{" "}
+            / debrief
           </p>
-          {verdict.reasons.length > 0 && (
-            <ul className="mt-1 list-disc pl-5 text-sm">
-              {verdict.reasons.map((r) => (
-                <li key={r}>{r}</li>
-              ))}
-            </ul>
-          )}
+          <h1 className="text-2xl font-bold tracking-tight break-words">{run.title}</h1>
+          {meta && <p className="mt-1 text-ink-soft">{meta}</p>}
+          {run.upload.note && <p className="mt-1 max-w-prose text-sm">{run.upload.note}</p>}
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <FieldModeToggle />
+          <a href={`/api/runs/${run.id}/original`} className="btn-quiet">
+            Download the original
+          </a>
+          {run.mayEdit && run.status !== "queued" && run.status !== "parsing" && run.status !== "analysing" && <ReparseButton runId={run.id} />}
+        </div>
+      </header>
+
+      <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} />
+
+      {verdict && look && (
+        <section aria-label="Verdict" data-testid="verdict" className={`mb-4 flex flex-col gap-3 rounded-lg border-l-8 bg-card p-4 sm:flex-row sm:items-start sm:justify-between ${look.cls}`}>
+          <div>
+            <p className="text-lg font-bold">
+              <span aria-hidden="true">{look.mark} </span>
+              {look.title}
+            </p>
+            {verdict.reasons.length > 0 ? (
+              <ul className="mt-1 list-disc pl-5 text-sm">
+                {verdict.reasons.map((r) => (
+                  <li key={r}>{r}</li>
+                ))}
+              </ul>
+            ) : (
+              <p className="mt-1 text-sm">No rule fired: the link held, the failsafe was not needed, the route and battery stayed in limits.</p>
+            )}
+          </div>
+          <div className="text-sm sm:text-right" data-testid="sign-off">
+            {d.signOff ? (
+              <p>
+                <span className="font-semibold">Signed off</span> by {d.signOff.by}
+                <br />
+                <span className="figures text-ink-soft">{utc(d.signOff.at)}</span>
+              </p>
+            ) : (
+              <p className="text-ink-soft">Not signed off yet{maySign ? "" : " — a lead signs debriefs off"}.</p>
+            )}
+            {maySign && (
+              <div className="mt-2 sm:flex sm:justify-end">
+                <SignOffForm runId={run.id} signed={Boolean(d.signOff)} />
+              </div>
+            )}
+          </div>
         </section>
       )}
+
       {run.status === "failed" && run.error && (
         <section role="alert" className="mb-6 rounded-lg border border-act/40 bg-act/5 p-4">
           <h2 className="font-semibold text-act">This log could not be read</h2>
@@ -88,55 +141,135 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
           </p>
         </section>
       )}
-      <dl className="grid grid-cols-2 gap-3 md:grid-cols-3">
-        {figures.map((f) => (
-          <div key={f.label} className="panel">
-            <dt className="text-sm text-ink-soft">{f.label}</dt>
-            <dd className="figures mt-1 break-words text-lg">{f.value}</dd>
-          </div>
-        ))}
-      </dl>
-      {carried && (
-        <p className="panel mt-3 text-sm">
-          <span className="text-ink-soft">The log carries: </span>
-          <span data-testid="carries">{carried}</span>
-        </p>
+
+      {ready && <SummaryFigures summary={summary} units={units} />}
+
+      {ready && run.sampleCount > 0 && (
+        <DebriefWorkspace
+          runId={run.id}
+          durationS={run.durationS ?? summary.durationS ?? 0}
+          events={d.events}
+          fieldsPresent={summary.fieldsPresent ?? []}
+          hasPlan={Boolean(d.plan)}
+          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold }}
+          units={units}
+          plan={d.plan}
+          home={(run.summary?.home as { lat: number; lon: number } | null) ?? null}
+          tileUrl={env().MAP_TILE_URL ?? null}
+          tileAttribution={env().MAP_TILE_ATTRIBUTION ?? null}
+        />
       )}
-      {run.warnings.length > 0 && (
-        <section className="panel mt-6" aria-labelledby="warnings">
-          <h2 id="warnings" className="text-lg font-semibold">
-            Warnings <span className="figures text-ink-soft">({run.warnings.length})</span>
+
+      {ready && (
+        <section className="panel mt-6" aria-labelledby="range-title">
+          <h2 id="range-title" className="text-lg font-semibold">
+            Range: signal against distance
           </h2>
-          <ul className="mt-2 space-y-1 text-sm">
-            {run.warnings.map((w, i) => (
-              <li key={i} className="flex gap-2">
-                <span aria-hidden="true" className="text-watch">
-                  ▲
-                </span>
-                <span>
-                  {w.message}
-                  {w.line ? ` (first at line ${w.line}${w.column ? `, column “${w.column}”` : ""})` : ""}
-                  {w.count && w.count > 1 ? ` — ${w.count.toLocaleString("en")} times` : ""}
-                </span>
+          <p className="mt-1 max-w-prose text-sm text-ink-soft">
+            Each dot is a sample with RSSI in dBm and a position. The solid line is the log-distance fit of this run; the dashed line
+            falls 20 dB per decade as in free space. Where the fit meets the threshold (receiver sensitivity plus the fade margin) is
+            the estimate{range?.estimatedRangeM != null ? `: ${formatDistance(range.estimatedRangeM, units)}` : ""}.
+          </p>
+          <div className="mt-3">
+            <RangeChart
+              runId={run.id}
+              fit={range?.p0Dbm != null && range.pathLossExponent != null ? { p0Dbm: range.p0Dbm, pathLossExponent: range.pathLossExponent } : null}
+              thresholdDbm={range?.thresholdDbm ?? null}
+              estimatedRangeM={range?.estimatedRangeM ?? null}
+              distanceUnit={units === "imperial" ? "ft" : "m"}
+            />
+          </div>
+          <div className="mt-3">
+            <SafetyNote topic="range" />
+          </div>
+        </section>
+      )}
+
+      <section className="panel mt-6" aria-labelledby="notes-title">
+        <h2 id="notes-title" className="text-lg font-semibold">
+          Notes <span className="figures text-ink-soft">({d.notes.length})</span>
+        </h2>
+        {d.notes.length === 0 ? (
+          <p className="mt-1 text-sm text-ink-soft">No notes yet. Pilots add what they saw and changed; leads read them before signing off.</p>
+        ) : (
+          <ol className="mt-2 space-y-3" data-testid="notes">
+            {d.notes.map((n) => (
+              <li key={n.id} className="border-l-4 border-tide-300 pl-3">
+                <p className="text-sm whitespace-pre-wrap break-words">{n.body}</p>
+                <p className="mt-1 text-xs text-ink-soft">
+                  {n.authorName ?? "a former member"} · <span className="figures">{utc(n.createdAt)}</span>
+                </p>
               </li>
             ))}
-          </ul>
+          </ol>
+        )}
+        {mayNote && <NoteForm runId={run.id} />}
+      </section>
+
+      {ready && (
+        <section className="mt-6 grid gap-3 md:grid-cols-2" aria-label="Cautions">
+          {failsafeExercised && <SafetyNote topic="failsafe" />}
+          {summary.power?.minCellV != null && <SafetyNote topic="battery" />}
+          <SafetyNote topic="general" />
         </section>
       )}
-      {run.format === "csv" && mayEdit && (
-        <section className="panel mt-6" aria-labelledby="column-map">
-          <h2 id="column-map" className="text-lg font-semibold">
-            Column map
-          </h2>
-          <p className="mt-1 text-sm text-ink-soft">Check which column carries which value and in which unit; correct it and re-parse.</p>
-          <ColumnMapEditor runId={run.id} crewId={run.crewId} current={run.columnMap} />
-        </section>
-      )}
-      <p className="mt-8 text-sm">
-        <Link href="/runs" className="text-tide-700 underline">
-          All runs
-        </Link>
-      </p>
+
+      <section className="panel mt-6" aria-labelledby="log-title">
+        <h2 id="log-title" className="text-lg font-semibold">
+          The log
+        </h2>
+        <dl className="mt-3 grid grid-cols-2 gap-3 text-sm md:grid-cols-3">
+          {[
+            ["Status", runStatusText[run.status] ?? run.status],
+            ["Format", run.format ? run.format.toUpperCase() : "—"],
+            ["Samples", run.sampleCount.toLocaleString("en")],
+            ["Duration", formatSpan(run.durationS)],
+            ["Started", run.startedAt ? utc(run.startedAt) : "not in the log"],
+            ["Original", `${run.upload.fileName} (${formatBytes(run.upload.sizeBytes)})`],
+          ].map(([label, value]) => (
+            <div key={label}>
+              <dt className="text-ink-soft">{label}</dt>
+              <dd className="figures mt-0.5 break-words">{value}</dd>
+            </div>
+          ))}
+        </dl>
+        {ready && (
+          <p className="mt-3 text-sm">
+            <span className="text-ink-soft">The log carries: </span>
+            <span data-testid="carries">{carries(run.summary)}</span>
+          </p>
+        )}
+        {run.warnings.length > 0 && (
+          <div className="mt-4" aria-labelledby="warnings">
+            <h3 id="warnings" className="font-semibold">
+              Warnings <span className="figures text-ink-soft">({run.warnings.length})</span>
+            </h3>
+            <ul className="mt-2 space-y-1 text-sm">
+              {run.warnings.map((w, i) => (
+                <li key={i} className="flex gap-2">
+                  <span aria-hidden="true" className="text-watch">
+                    ▲
+                  </span>
+                  <span>
+                    {w.message}
+                    {w.line ? ` (first at line ${w.line}${w.column ? `, column “${w.column}”` : ""})` : ""}
+                    {w.count && w.count > 1 ? ` — ${w.count.toLocaleString("en")} times` : ""}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </div>
+        )}
+        {run.format === "csv" && run.mayEdit && (
+          <div className="mt-4" aria-labelledby="column-map">
+            <h3 id="column-map" className="font-semibold">
+              Column map
+            </h3>
+            <p className="mt-1 text-sm text-ink-soft">Check which column carries which value and in which unit; correct it and re-parse.</p>
+            <ColumnMapEditor runId={run.id} crewId={run.crewId} current={run.columnMap} />
+          </div>
+        )}
+      </section>
     </>
   );
 }

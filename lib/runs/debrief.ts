@@ -1,0 +1,54 @@
+import { asc, eq } from "drizzle-orm";
+import { db } from "@/db/client";
+import { getBuild } from "@/db/queries/builds";
+import { getRoutePlan } from "@/db/queries/route-plans";
+import { getRun } from "@/db/queries/runs";
+import { getUserById } from "@/db/queries/users";
+import { events as eventsTable } from "@/db/schema";
+import type { Actor } from "@/lib/auth/actor";
+import { viewRun } from "@/lib/ingest/runs";
+import { listNotes } from "./notes";
+
+/** Everything the debrief page shows for one run, after the read check in viewRun. */
+export async function loadDebrief(actor: Actor, runId: number) {
+  const run = await viewRun(actor, runId);
+  const [events, notes, build, plan, pilot, row, me] = await Promise.all([
+    run.status === "ready" ? db().select().from(eventsTable).where(eq(eventsTable.runId, runId)).orderBy(asc(eventsTable.startS), asc(eventsTable.id)) : [],
+    listNotes(runId),
+    run.buildId ? getBuild(run.buildId) : null,
+    run.routePlanId ? getRoutePlan(run.routePlanId) : null,
+    run.pilotId ? getUserById(run.pilotId) : null,
+    getRun(runId),
+    getUserById(actor.user.id),
+  ]);
+  const signedOffBy = row?.signedOffBy ? await getUserById(row.signedOffBy) : null;
+  const thresholds = (run.summary?.thresholds ?? {}) as { acceptanceRadiusM?: number };
+  return {
+    run,
+    events: events.map((e) => ({
+      id: e.id,
+      kind: e.kind,
+      startS: e.startS,
+      endS: e.endS,
+      lat: e.lat,
+      lon: e.lon,
+      distanceFromHomeM: e.distanceFromHomeM,
+      peak: e.peak,
+      threshold: e.threshold,
+      detail: (e.detail as Record<string, unknown> | null) ?? null,
+    })),
+    notes,
+    buildName: build?.name ?? null,
+    pilotName: pilot?.name ?? null,
+    plan: plan
+      ? {
+          name: plan.name,
+          waypoints: plan.waypoints.map((w) => ({ name: w.name, lat: w.lat, lon: w.lon, radiusM: w.radiusM ?? thresholds.acceptanceRadiusM ?? 2 })),
+        }
+      : null,
+    signOff: row?.signedOffAt ? { by: signedOffBy?.name ?? "a former member", at: row.signedOffAt } : null,
+    units: me?.units ?? "metric",
+  };
+}
+
+export type Debrief = Awaited<ReturnType<typeof loadDebrief>>;

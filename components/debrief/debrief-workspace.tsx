@@ -87,7 +87,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
       <h2 id="workspace-title" className="sr-only">
         Charts, map and events
       </h2>
-      <div className="panel sticky top-0 z-10 mb-3 flex flex-wrap items-center gap-2 py-2 sm:py-3">
+      <div className="panel mb-3 flex flex-wrap items-center gap-2 py-2 sm:py-3 lg:sticky lg:top-0 lg:z-[1100]">
         <button type="button" className="btn-quiet" onClick={() => step(-1)} disabled={!events.length} aria-keyshortcuts="p">
           ← Previous event
         </button>

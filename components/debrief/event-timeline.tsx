@@ -33,7 +33,7 @@ export function EventTimeline(props: {
   const ticks = Array.from({ length: 5 }, (_, i) => (durationS * i) / 4);
   return (
     <figure className="select-none" data-testid="event-timeline">
-      <svg viewBox={`0 0 ${W} ${H + 14}`} className="h-14 w-full" preserveAspectRatio="none" role="group" aria-label="Events along the run">
+      <svg viewBox={`0 0 ${W} ${H}`} className="h-10 w-full" preserveAspectRatio="none" role="group" aria-label="Events along the run">
         <rect x={0} y={0} width={W} height={H} fill="var(--color-tide-50)" stroke="var(--color-rule)" />
         {range && <rect x={x(range.from)} y={0} width={Math.max(2, x(range.to) - x(range.from))} height={H} fill="none" stroke="var(--color-ink)" strokeWidth={2} strokeDasharray="6 3" />}
         {marks.map((m) => {
@@ -58,12 +58,13 @@ export function EventTimeline(props: {
             </rect>
           );
         })}
-        {ticks.map((t, i) => (
-          <text key={i} x={Math.min(W - 2, Math.max(2, x(t)))} y={H + 12} fontSize={11} textAnchor={i === 0 ? "start" : i === 4 ? "end" : "middle"} fill="var(--color-ink-soft)">
-            {formatClock(t)}
-          </text>
-        ))}
       </svg>
+      {/* Labels outside the stretched SVG, so they keep their size on a narrow screen. */}
+      <figcaption className="figures flex justify-between text-xs text-ink-soft" aria-hidden="true">
+        {ticks.map((t, i) => (
+          <span key={i}>{formatClock(t)}</span>
+        ))}
+      </figcaption>
     </figure>
   );
 }

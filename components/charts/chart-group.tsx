@@ -46,6 +46,8 @@ export interface ChartMarker {
 }
 export interface ChartGroupProps {
   runId: number;
+  /** The run's data version; changes on every re-parse so no cached series outlives it. */
+  version?: string;
   panels: ChartPanel[];
   /** The whole run is [0, durationS] seconds. */
   durationS: number;
@@ -161,7 +163,7 @@ export function ChartGroup(props: ChartGroupProps) {
 
   const fieldsKey = unionFields(panels).join(",");
   const fields = useMemo(() => (fieldsKey ? (fieldsKey.split(",") as SeriesField[]) : []), [fieldsKey]);
-  const series = useSeries(runId, fields, view, width, durationS);
+  const series = useSeries(runId, fields, view, width, durationS, props.version);
   const convert = useStableConverters(props.convert);
 
   const liveRef = useRef<GroupLive | null>(null);

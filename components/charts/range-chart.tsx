@@ -15,6 +15,8 @@ import { useAbsentFields, usePoints } from "./use-series";
 
 export interface RangeChartProps {
   runId: number;
+  /** The run's data version; changes on every re-parse so no cached points outlive it. */
+  version?: string;
   /** The run's log-distance fit (RSSI at 1 m and path-loss exponent n), null when none was made. */
   fit: { p0Dbm: number; pathLossExponent: number } | null;
   /** Receiver sensitivity + fade margin, dBm. */
@@ -48,11 +50,11 @@ interface RangeState {
  * log-distance fit, the free-space line from the same 1 m level, the threshold and the range
  * where the fit meets it.
  */
-export function RangeChart({ runId, fit, thresholdDbm, estimatedRangeM, convertDistance, distanceUnit }: RangeChartProps) {
+export function RangeChart({ runId, version, fit, thresholdDbm, estimatedRangeM, convertDistance, distanceUnit }: RangeChartProps) {
   const theme = useChartTheme();
   const wrapRef = useRef<HTMLDivElement>(null);
   const width = useElementWidth(wrapRef);
-  const points = usePoints(runId, RANGE_FIELDS, RANGE_POINTS);
+  const points = usePoints(runId, RANGE_FIELDS, RANGE_POINTS, version);
   const unit = distanceUnit ?? "m";
   const toUnit = distanceConverter(distanceUnit, convertDistance);
   const p0 = fit?.p0Dbm;
@@ -66,7 +68,7 @@ export function RangeChart({ runId, fit, thresholdDbm, estimatedRangeM, convertD
     [points.data, p0, n, estimatedRangeM, toUnit],
   );
   const tooFew = data != null && data.samples < MIN_RANGE_SAMPLES;
-  const absent = useAbsentFields(runId, RANGE_FIELDS, tooFew);
+  const absent = useAbsentFields(runId, RANGE_FIELDS, tooFew, version);
   const height = width > 0 && width < NARROW_PX ? NARROW_HEIGHT : HEIGHT;
   const estimatedX = estimatedRangeM != null && Number.isFinite(estimatedRangeM) && estimatedRangeM > 0 ? toUnit(estimatedRangeM) : null;
   const estimatedLabel = estimatedX != null ? `Estimated range ${formatDistance(estimatedX, unit)}` : "";

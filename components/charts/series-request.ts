@@ -61,6 +61,7 @@ export function seriesUrl(
 }
 
 /** `/api/runs/{id}/points?fields=a,b&points=n` */
-export function pointsUrl(runId: number, fields: readonly SeriesField[], points: number): string {
-  return `/api/runs/${encodeURIComponent(String(runId))}/points?fields=${fields.join(",")}&points=${Math.round(points)}`;
+export function pointsUrl(runId: number, fields: readonly SeriesField[], points: number, version?: string): string {
+  const v = version ? `&v=${encodeURIComponent(version)}` : "";
+  return `/api/runs/${encodeURIComponent(String(runId))}/points?fields=${fields.join(",")}&points=${Math.round(points)}${v}`;
 }

@@ -82,6 +82,8 @@ export function useSeries(
   range: TimeRange | null,
   widthPx: number,
   durationS: number,
+  /** The run's current data version (from the page): part of every URL, so a re-parse never shows cached data. */
+  runVersion?: string,
 ): UseSeriesResult {
   const points = pointsForWidth(widthPx);
   const fetchRange = roundRangeForFetch(range, durationS);
@@ -91,9 +93,9 @@ export function useSeries(
   const settledRange = parseRangeKey(settledKey);
   const ready = widthPx > 0 && fields.length > 0;
 
-  const overview = useSWR<SeriesResponse, Error>(ready ? seriesUrl(runId, fields, null, points) : null, fetchJson, swrOptions);
+  const overview = useSWR<SeriesResponse, Error>(ready ? seriesUrl(runId, fields, null, points, runVersion) : null, fetchJson, swrOptions);
   // Zoom windows wait for the overview so they can carry its version (cacheable answers).
-  const version = overview.data?.version;
+  const version = runVersion ?? overview.data?.version;
   const detail = useSWR<SeriesResponse, Error>(
     ready && settledRange && overview.data ? seriesUrl(runId, fields, settledRange, points, version) : null,
     fetchJson,
@@ -114,12 +116,12 @@ export function useSeries(
 }
 
 /** Scatter samples for the range chart. */
-export function usePoints(runId: number, fields: readonly SeriesField[], points: number) {
-  return useSWR<PointsResponse, Error>(pointsUrl(runId, fields, points), fetchJson, swrOptions);
+export function usePoints(runId: number, fields: readonly SeriesField[], points: number, runVersion?: string) {
+  return useSWR<PointsResponse, Error>(pointsUrl(runId, fields, points, runVersion), fetchJson, swrOptions);
 }
 
 /** Which of `fields` the run has no value for anywhere (asked only when `enabled`). */
-export function useAbsentFields(runId: number, fields: readonly SeriesField[], enabled: boolean): SeriesField[] | null {
-  const res = useSWR<SeriesResponse, Error>(enabled ? seriesUrl(runId, fields, null, 100) : null, fetchJson, swrOptions);
+export function useAbsentFields(runId: number, fields: readonly SeriesField[], enabled: boolean, runVersion?: string): SeriesField[] | null {
+  const res = useSWR<SeriesResponse, Error>(enabled ? seriesUrl(runId, fields, null, 100, runVersion) : null, fetchJson, swrOptions);
   return res.data ? res.data.absent : null;
 }

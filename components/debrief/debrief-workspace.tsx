@@ -11,6 +11,8 @@ import { eventLabel, eventTone, eventWindow, type DebriefEvent } from "./event-w
 
 export interface DebriefWorkspaceProps {
   runId: number;
+  /** The run's data version (changes with every re-parse); keys every data request. */
+  version: string;
   durationS: number;
   events: DebriefEvent[];
   fieldsPresent: string[];
@@ -116,6 +118,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
         <div className="panel min-w-0 p-2 sm:p-3">
           <ChartGroup
             runId={runId}
+            version={props.version}
             panels={panels}
             durationS={durationS}
             range={range}
@@ -130,6 +133,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
         <div className="panel min-w-0 p-2 sm:p-3 lg:sticky lg:top-20 lg:self-start">
           <TrackMap
             runId={runId}
+            version={props.version}
             plan={props.plan}
             home={props.home}
             events={mapEvents}

@@ -34,6 +34,8 @@ export interface MapEvent {
 
 export interface TrackMapProps {
   runId: number;
+  /** The run's data version; changes on every re-parse so no cached track outlives it. */
+  version?: string;
   /** The route plan: dashed line through the waypoints, numbered marks, acceptance circles. */
   plan: { name: string; waypoints: MapWaypoint[] } | null;
   home: { lat: number; lon: number } | null;
@@ -149,6 +151,7 @@ function extendWithTrack(bounds: Leaflet.LatLngBounds, data: TrackResponse, from
 
 export function TrackMap({
   runId,
+  version,
   plan,
   home,
   events,
@@ -165,7 +168,7 @@ export function TrackMap({
   const [ctx, setCtx] = useState<Ctx | null>(null);
   const [trackInfo, setTrackInfo] = useState<{ points: number; noValue: boolean }>({ points: 0, noValue: false });
 
-  const { data, error, isLoading, mutate } = useSWR<TrackResponse>(`/api/runs/${runId}/track`, fetchTrack, {
+  const { data, error, isLoading, mutate } = useSWR<TrackResponse>(`/api/runs/${runId}/track${version ? `?v=${encodeURIComponent(version)}` : ""}`, fetchTrack, {
     revalidateOnFocus: false,
   });
   const track = data && data.runId === runId ? data : undefined;

@@ -1,11 +1,14 @@
-import { and, asc, count, desc, eq, gte, inArray, lt } from "drizzle-orm";
+import { and, asc, count, desc, eq, gte, inArray, lt, sql, type SQL } from "drizzle-orm";
 import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
 import { db } from "@/db/client";
 import { builds, memberships, routePlans, runs, users } from "@/db/schema";
 import { RUNS_PER_PAGE, type RunListQuery, type RunSortKey } from "@/lib/validations/run-list";
 
-const sortColumns: Record<RunSortKey, AnyMySqlColumn> = {
-  date: runs.createdAt,
+/** When the run happened: the log's own start time, else the upload time (what the table shows). */
+const runDate = sql`COALESCE(${runs.startedAt}, ${runs.createdAt})`;
+
+const sortColumns: Record<RunSortKey, AnyMySqlColumn | SQL> = {
+  date: runDate,
   build: builds.name,
   pilot: users.name,
   plan: routePlans.name,
@@ -22,8 +25,8 @@ export async function listRunsPage(crewId: number, q: RunListQuery) {
   if (q.pilot) where.push(eq(runs.pilotId, q.pilot));
   if (q.verdict) where.push(eq(runs.verdict, q.verdict));
   // Dates filter on when the run happened (upload time when the log has no clock), UTC days.
-  if (q.from) where.push(gte(runs.createdAt, new Date(`${q.from}T00:00:00Z`)));
-  if (q.to) where.push(lt(runs.createdAt, new Date(Date.parse(`${q.to}T00:00:00Z`) + 86_400_000)));
+  if (q.from) where.push(gte(runDate, new Date(`${q.from}T00:00:00Z`)));
+  if (q.to) where.push(lt(runDate, new Date(Date.parse(`${q.to}T00:00:00Z`) + 86_400_000)));
   const filter = and(...where);
   const order = q.dir === "asc" ? asc : desc;
 
@@ -48,7 +51,8 @@ export async function listRunsPage(crewId: number, q: RunListQuery) {
       .leftJoin(users, eq(users.id, runs.pilotId))
       .leftJoin(routePlans, eq(routePlans.id, runs.routePlanId))
       .where(filter)
-      .orderBy(order(sortColumns[q.sort]), desc(runs.id))
+      // Blanks (no build, not yet analysed…) last in either direction.
+      .orderBy(sql`${sortColumns[q.sort]} IS NULL`, order(sortColumns[q.sort]), desc(runs.id))
       .limit(RUNS_PER_PAGE)
       .offset((q.page - 1) * RUNS_PER_PAGE),
     db().select({ n: count() }).from(runs).where(filter),

@@ -94,7 +94,8 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
     const summary = await parseLog(format, source, {
       columnMap,
       onBatch: async (b: SampleBatch) => {
-        if (b.length) lastT = b.columns.tS[b.length - 1];
+        // The latest time, not the last row's: a clock that steps back must not shorten the run.
+        for (let i = 0; i < b.length; i++) if (b.columns.tS[i] > lastT || lastT !== lastT) lastT = b.columns.tS[i];
         // From the first batch's share of the bytes, size the series for the whole file once.
         if (collector.length === 0 && b.length && bytes > 0) collector.reserve((b.length * upload.sizeBytes * 1.1) / bytes, b.rc !== null);
         collector.add(b);
@@ -124,6 +125,9 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
         status: "ready",
         progress: 1,
         format,
+        // New figures: a sign-off given to the earlier analysis does not carry over.
+        signedOffBy: null,
+        signedOffAt: null,
         sampleCount: summary.sampleCount,
         startedAt: summary.startedAt,
         durationS: Number.isFinite(lastT) ? lastT : null,

@@ -64,7 +64,8 @@ export function parseNumber(text: string, decimal: "." | ","): number | null {
   // "Infinity" (not finite), which fall through to the full check below.
   if (decimal === ".") {
     const c1 = text.charCodeAt(1) | 32;
-    if (c1 !== 120 && c1 !== 111 && c1 !== 98) {
+    // Leading blanks would hide a radix prefix from the check on character 1.
+    if (c1 !== 120 && c1 !== 111 && c1 !== 98 && text.charCodeAt(0) > 32) {
       const v = Number(text);
       if (v - v === 0 && (v !== 0 || text.trim() !== "")) return v;
     }

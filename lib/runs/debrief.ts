@@ -7,6 +7,7 @@ import { getUserById } from "@/db/queries/users";
 import { events as eventsTable } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import { viewRun } from "@/lib/ingest/runs";
+import { versionOf } from "@/lib/series/read-series";
 import { listNotes } from "./notes";
 
 /** Everything the debrief page shows for one run, after the read check in viewRun. */
@@ -46,6 +47,8 @@ export async function loadDebrief(actor: Actor, runId: number) {
           waypoints: plan.waypoints.map((w) => ({ name: w.name, lat: w.lat, lon: w.lon, radiusM: w.radiusM ?? thresholds.acceptanceRadiusM ?? 2 })),
         }
       : null,
+    /** Keys the charts' and map's requests: a re-parse rewrites the run row and so the version. */
+    dataVersion: row ? versionOf(row) : "0",
     signOff: row?.signedOffAt ? { by: signedOffBy?.name ?? "a former member", at: row.signedOffAt } : null,
     units: me?.units ?? "metric",
   };

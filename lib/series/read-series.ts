@@ -3,6 +3,8 @@
  * headers, one consistent read of the stored levels, and a rebuild for runs stored before
  * levels existed.
  */
+import { analyseRun } from "@/lib/analysis/analyse-run";
+import { loadAnalysisInputs } from "@/lib/ingest/analysis-inputs";
 import { pool } from "@/db/client";
 import { getRun } from "@/db/queries/runs";
 import type { Run } from "@/db/schema";
@@ -24,7 +26,7 @@ export interface Cached<T> {
 }
 
 /** Changes whenever the stored levels can: a re-parse or re-analysis rewrites the run row. */
-const versionOf = (run: Pick<Run, "updatedAt">) => `${LEVELS_VERSION}.${run.updatedAt.getTime()}`;
+export const versionOf = (run: Pick<Run, "updatedAt">) => `${LEVELS_VERSION}.${run.updatedAt.getTime()}`;
 
 /**
  * A request that names the current version (`v`, from an earlier response) may be kept for good:
@@ -54,9 +56,9 @@ const g = globalThis as unknown as { sortieSeriesRebuilds?: Map<number, Promise<
 const rebuilds = (g.sortieSeriesRebuilds ??= new Map());
 
 /**
- * Levels for a run stored before they existed (or with an older layout): built from its samples
- * (no derived fields: those need the analysis), stored unless the run changed meanwhile, and
- * served from memory for this request.
+ * Levels for a run stored before they existed (or with an older layout): built from its samples,
+ * with the derived fields from the (pure) analysis run again, stored unless the run changed
+ * meanwhile, and served from memory for this request.
  */
 function rebuildLevels(run: Run): Promise<{ source: BlobSource; loaded: LoadedMeta }> {
   const running = rebuilds.get(run.id);
@@ -65,7 +67,8 @@ function rebuildLevels(run: Run): Promise<{ source: BlobSource; loaded: LoadedMe
     .catch(() => {})
     .then(async () => {
       const series = await loadStoredSeries(pool(), run.id, run.modeNames ?? []);
-      const blobs: SeriesBlob[] = [...seriesBlobs(series)];
+      const analysis = analyseRun(series, await loadAnalysisInputs(run));
+      const blobs: SeriesBlob[] = [...seriesBlobs(series, analysis.perSample)];
       const source = memoryBlobSource(blobs);
       const loaded = await loadMeta(source);
       if (!loaded) throw new Error(`levels of run ${run.id} could not be built`);
@@ -73,7 +76,11 @@ function rebuildLevels(run: Run): Promise<{ source: BlobSource; loaded: LoadedMe
       return { source, loaded };
     })
     .finally(() => rebuilds.delete(run.id));
-  g.sortieSeriesQueue = job;
+  // The queue holds only completion, not the result: a finished rebuild's blobs must be collectable.
+  g.sortieSeriesQueue = job.then(
+    () => {},
+    () => {},
+  );
   rebuilds.set(run.id, job);
   return job;
 }

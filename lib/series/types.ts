@@ -50,7 +50,7 @@ export interface SeriesResponse {
 }
 
 /** Link metrics a track can be coloured by, best first. */
-export const trackMetrics = ["lqPct", "rssiDbm", "rssiPct", "snrDb"] as const;
+export const trackMetrics = ["lqPct", "rssiPct", "rssiDbm", "snrDb"] as const; // the analysis' order (lib/analysis/link.ts)
 export type TrackMetric = (typeof trackMetrics)[number];
 
 /**

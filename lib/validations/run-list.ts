@@ -10,7 +10,11 @@ const day = /^\d{4}-\d{2}-\d{2}$/;
 // Search params arrive as strings (or arrays when repeated); anything unreadable falls back to
 // the default instead of failing the page, since people edit URLs by hand.
 const optionalId = z.coerce.number().int().positive().optional().catch(undefined);
-const optionalDay = z.string().regex(day).optional().catch(undefined);
+const realDay = (s: string) => {
+  const t = Date.parse(`${s}T00:00:00Z`);
+  return Number.isFinite(t) && new Date(t).toISOString().startsWith(s) && s >= "1970-01-01" && s <= "9998-12-31";
+};
+const optionalDay = z.string().regex(day).refine(realDay).optional().catch(undefined);
 
 /** The runs list's filter, sort and page, as the URL holds them. */
 export const runListQuerySchema = z.object({

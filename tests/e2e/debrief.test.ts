@@ -66,24 +66,25 @@ describe("the debrief page", () => {
     const before = await xRange(page, "link");
     const row = page.getByTestId("events-table").locator("tbody tr").filter({ hasText: "Link lost" }).first();
     await row.getByRole("button").click();
-    await expect.poll(() => xRange(page, "link").then(([a, b]) => b - a)).toBeLessThan(before[1] - before[0]);
+    await expect.poll(() => xRange(page, "link").then(([a, b]) => b - a), { timeout: 15_000 }).toBeLessThan(before[1] - before[0]);
     const zoomed = await xRange(page, "link");
     // One shared x range: another chart shows the same window.
-    expect(await xRange(page, "voltage")).toEqual(zoomed);
+    await expect.poll(() => xRange(page, "voltage"), { timeout: 15_000 }).toEqual(zoomed);
     const eventId = await row.getAttribute("data-event-id");
-    await expect.poll(() => page.getByTestId("track-map").getAttribute("data-selected-event")).toBe(eventId);
+    await expect.poll(() => page.getByTestId("track-map").getAttribute("data-selected-event"), { timeout: 15_000 }).toBe(eventId);
     await page.screenshot({ path: screenshotPath("debrief-event-selected"), fullPage: false });
 
     await page.keyboard.press("0");
-    await expect.poll(() => xRange(page, "link").then(([a, b]) => b - a)).toBeGreaterThan(zoomed[1] - zoomed[0]);
+    await expect.poll(() => xRange(page, "link").then(([a, b]) => b - a), { timeout: 15_000 }).toBeGreaterThan(zoomed[1] - zoomed[0]);
     await page.keyboard.press("n");
-    await expect.poll(() => page.getByTestId("range-readout").textContent()).not.toMatch(/^Whole run/);
+    await expect.poll(() => page.getByTestId("range-readout").textContent(), { timeout: 15_000 }).not.toMatch(/^Whole run/);
   });
 
   it("takes a note and a lead's sign-off", async () => {
-    await page.getByLabel("Add a note").fill("Antenna moved to the mast top before the next run.");
+    const note = `Antenna moved to the mast top before the next run (${Date.now()}).`;
+    await page.getByLabel("Add a note").fill(note);
     await page.getByRole("button", { name: "Add note" }).click();
-    await page.getByTestId("notes").getByText("Antenna moved to the mast top").waitFor();
+    await page.getByTestId("notes").getByText(note).waitFor();
     await page.getByRole("button", { name: "Sign off this debrief" }).click();
     await page.getByTestId("sign-off").getByText("Signed off", { exact: true }).waitFor();
     expect(await page.getByTestId("sign-off").textContent()).toContain(lead.name);
@@ -94,6 +95,9 @@ describe("the debrief page", () => {
     await phone.setViewportSize({ width: 390, height: 844 });
     await phone.goto(page.url());
     await phone.getByTestId("chart-link").locator("canvas").first().waitFor({ timeout: 30_000 });
+    // Measure the width once the map and range chart have drawn too.
+    await expect.poll(() => phone.getByTestId("track-map").getAttribute("data-track-points").then(Number), { timeout: 30_000 }).toBeGreaterThan(10);
+    await phone.getByTestId("range-chart").locator("canvas").first().waitFor({ timeout: 30_000 });
     const canvas = (await phone.getByTestId("chart-link").locator("canvas").first().boundingBox())!;
     expect(canvas.width).toBeLessThanOrEqual(390);
     const scrollWidth = await phone.evaluate(() => document.documentElement.scrollWidth);

@@ -31,3 +31,13 @@ describe("units", () => {
     expect(formatSpan(3720)).toBe("1 h 02 min");
   });
 });
+
+describe("runs list query", () => {
+  it("drops impossible dates and unknown values instead of failing the page", async () => {
+    const { readRunListQuery, runListSearch } = await import("@/lib/validations/run-list");
+    const q = readRunListQuery({ from: "2024-13-01", to: "2024-02-30", sort: "nonsense", verdict: "act", page: "0", build: "7" });
+    expect(q).toMatchObject({ from: undefined, to: undefined, sort: "date", verdict: "act", page: 1, build: 7 });
+    expect(readRunListQuery({ from: "2024-02-29" }).from).toBe("2024-02-29"); // a leap day
+    expect(runListSearch(q, { page: 2 })).toBe("?build=7&verdict=act&page=2");
+  });
+});

@@ -168,9 +168,11 @@ describe("track overview", () => {
     expect(tr.lat[Array.from(tr.link).indexOf(5)]).toBe(pos(202).lat);
   });
 
-  it("uses the first link metric of trackMetrics the run has", () => {
+  it("colours by the link metric the analysis judges (LQ, else RSSI %, else RSSI dBm, else SNR)", () => {
     const s = makeSeries(10, { lat: (i) => pos(i).lat, lon: (i) => pos(i).lon, snrDb: () => 3, rssiPct: () => 40, rssiDbm: () => -80 });
-    expect(buildTrack(s, findBreaks(s, null), null).metric).toBe("rssiDbm");
+    expect(buildTrack(s, findBreaks(s, null), null).metric).toBe("rssiPct");
+    const dbm = makeSeries(10, { lat: (i) => pos(i).lat, lon: (i) => pos(i).lon, snrDb: () => 3, rssiDbm: () => -80 });
+    expect(buildTrack(dbm, findBreaks(dbm, null), null).metric).toBe("rssiDbm");
     const none = makeSeries(10, { lat: (i) => pos(i).lat, lon: (i) => pos(i).lon });
     const tr = buildTrack(none, findBreaks(none, null), null);
     expect(tr.metric).toBeNull();

@@ -147,6 +147,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
       {ready && run.sampleCount > 0 && (
         <DebriefWorkspace
           runId={run.id}
+          version={d.dataVersion}
           durationS={run.durationS ?? summary.durationS ?? 0}
           events={d.events}
           fieldsPresent={summary.fieldsPresent ?? []}
@@ -173,6 +174,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
           <div className="mt-3">
             <RangeChart
               runId={run.id}
+              version={d.dataVersion}
               fit={range?.p0Dbm != null && range.pathLossExponent != null ? { p0Dbm: range.p0Dbm, pathLossExponent: range.pathLossExponent } : null}
               thresholdDbm={range?.thresholdDbm ?? null}
               estimatedRangeM={range?.estimatedRangeM ?? null}

@@ -64,8 +64,9 @@ export function eventPeak(e: DebriefEvent, units: Units, linkUnit: string | null
   const th = e.threshold;
   switch (e.kind) {
     case "link-fade":
-    case "link-lost":
       return `${round(p)} ${linkUnit ?? ""}`.trim() + (th != null ? ` (threshold ${round(th)})` : "");
+    case "link-lost":
+      return `${round(p)} ${linkUnit ?? ""}`.trim() + (th != null ? " (at its floor)" : "");
     case "failsafe":
       return `${p.toFixed(1)} s to act` + (th != null ? ` (plan ${th} s)` : "");
     case "waypoint-reached":

@@ -48,6 +48,8 @@ export interface ChartGroupProps {
   runId: number;
   /** The run's data version; changes on every re-parse so no cached series outlives it. */
   version?: string;
+  /** Where the data endpoints live; default `/api/runs/{runId}` (the shared page passes its share link's). */
+  apiBase?: string;
   panels: ChartPanel[];
   /** The whole run is [0, durationS] seconds. */
   durationS: number;
@@ -163,7 +165,7 @@ export function ChartGroup(props: ChartGroupProps) {
 
   const fieldsKey = unionFields(panels).join(",");
   const fields = useMemo(() => (fieldsKey ? (fieldsKey.split(",") as SeriesField[]) : []), [fieldsKey]);
-  const series = useSeries(runId, fields, view, width, durationS, props.version);
+  const series = useSeries(runId, fields, view, width, durationS, props.version, props.apiBase);
   const convert = useStableConverters(props.convert);
 
   const liveRef = useRef<GroupLive | null>(null);

@@ -17,6 +17,8 @@ export interface RangeChartProps {
   runId: number;
   /** The run's data version; changes on every re-parse so no cached points outlive it. */
   version?: string;
+  /** Where the data endpoints live; default `/api/runs/{runId}` (the shared page passes its share link's). */
+  apiBase?: string;
   /** The run's log-distance fit (RSSI at 1 m and path-loss exponent n), null when none was made. */
   fit: { p0Dbm: number; pathLossExponent: number } | null;
   /** Receiver sensitivity + fade margin, dBm. */
@@ -50,11 +52,11 @@ interface RangeState {
  * log-distance fit, the free-space line from the same 1 m level, the threshold and the range
  * where the fit meets it.
  */
-export function RangeChart({ runId, version, fit, thresholdDbm, estimatedRangeM, convertDistance, distanceUnit }: RangeChartProps) {
+export function RangeChart({ runId, version, apiBase, fit, thresholdDbm, estimatedRangeM, convertDistance, distanceUnit }: RangeChartProps) {
   const theme = useChartTheme();
   const wrapRef = useRef<HTMLDivElement>(null);
   const width = useElementWidth(wrapRef);
-  const points = usePoints(runId, RANGE_FIELDS, RANGE_POINTS, version);
+  const points = usePoints(runId, RANGE_FIELDS, RANGE_POINTS, version, apiBase);
   const unit = distanceUnit ?? "m";
   const toUnit = distanceConverter(distanceUnit, convertDistance);
   const p0 = fit?.p0Dbm;
@@ -68,7 +70,7 @@ export function RangeChart({ runId, version, fit, thresholdDbm, estimatedRangeM,
     [points.data, p0, n, estimatedRangeM, toUnit],
   );
   const tooFew = data != null && data.samples < MIN_RANGE_SAMPLES;
-  const absent = useAbsentFields(runId, RANGE_FIELDS, tooFew, version);
+  const absent = useAbsentFields(runId, RANGE_FIELDS, tooFew, version, apiBase);
   const height = width > 0 && width < NARROW_PX ? NARROW_HEIGHT : HEIGHT;
   const estimatedX = estimatedRangeM != null && Number.isFinite(estimatedRangeM) && estimatedRangeM > 0 ? toUnit(estimatedRangeM) : null;
   const estimatedLabel = estimatedX != null ? `Estimated range ${formatDistance(estimatedX, unit)}` : "";

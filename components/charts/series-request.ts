@@ -44,6 +44,14 @@ export function roundRangeForFetch(r: TimeRange | null, durationS: number): Time
 }
 
 /**
+ * Where a run's data endpoints live: `/api/runs/{id}` for the crew, or a share link's
+ * `/api/share/{token}`, which serves the same answers for its one run.
+ */
+export function runApiBase(runId: number, apiBase?: string): string {
+  return apiBase ?? `/api/runs/${encodeURIComponent(String(runId))}`;
+}
+
+/**
  * `/api/runs/{id}/series?fields=a,b&points=n[&from=&to=][&v=]`. `version` (from an earlier answer)
  * lets the browser keep the answer for good; it changes when the run is re-analysed.
  */
@@ -53,15 +61,21 @@ export function seriesUrl(
   range: TimeRange | null,
   points: number,
   version?: string,
+  apiBase?: string,
 ): string {
-  let url = `/api/runs/${encodeURIComponent(String(runId))}/series?fields=${fields.join(",")}&points=${Math.round(points)}`;
+  let url = `${runApiBase(runId, apiBase)}/series?fields=${fields.join(",")}&points=${Math.round(points)}`;
   if (range) url += `&from=${range.from}&to=${range.to}`;
   if (version) url += `&v=${encodeURIComponent(version)}`;
   return url;
 }
 
-/** `/api/runs/{id}/points?fields=a,b&points=n` */
-export function pointsUrl(runId: number, fields: readonly SeriesField[], points: number, version?: string): string {
+/** `/api/runs/{id}/points?fields=a,b&points=n` (or under `apiBase`) */
+export function pointsUrl(runId: number, fields: readonly SeriesField[], points: number, version?: string, apiBase?: string): string {
   const v = version ? `&v=${encodeURIComponent(version)}` : "";
-  return `/api/runs/${encodeURIComponent(String(runId))}/points?fields=${fields.join(",")}&points=${Math.round(points)}${v}`;
+  return `${runApiBase(runId, apiBase)}/points?fields=${fields.join(",")}&points=${Math.round(points)}${v}`;
+}
+
+/** `/api/runs/{id}/track[?v=]` (or under `apiBase`) */
+export function trackUrl(runId: number, version?: string, apiBase?: string): string {
+  return `${runApiBase(runId, apiBase)}/track${version ? `?v=${encodeURIComponent(version)}` : ""}`;
 }

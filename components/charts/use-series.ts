@@ -84,6 +84,8 @@ export function useSeries(
   durationS: number,
   /** The run's current data version (from the page): part of every URL, so a re-parse never shows cached data. */
   runVersion?: string,
+  /** Where the data endpoints live (default `/api/runs/{runId}`; a share link's own base on the shared page). */
+  apiBase?: string,
 ): UseSeriesResult {
   const points = pointsForWidth(widthPx);
   const fetchRange = roundRangeForFetch(range, durationS);
@@ -93,11 +95,11 @@ export function useSeries(
   const settledRange = parseRangeKey(settledKey);
   const ready = widthPx > 0 && fields.length > 0;
 
-  const overview = useSWR<SeriesResponse, Error>(ready ? seriesUrl(runId, fields, null, points, runVersion) : null, fetchJson, swrOptions);
+  const overview = useSWR<SeriesResponse, Error>(ready ? seriesUrl(runId, fields, null, points, runVersion, apiBase) : null, fetchJson, swrOptions);
   // Zoom windows wait for the overview so they can carry its version (cacheable answers).
   const version = runVersion ?? overview.data?.version;
   const detail = useSWR<SeriesResponse, Error>(
-    ready && settledRange && overview.data ? seriesUrl(runId, fields, settledRange, points, version) : null,
+    ready && settledRange && overview.data ? seriesUrl(runId, fields, settledRange, points, version, apiBase) : null,
     fetchJson,
     swrOptions,
   );
@@ -116,12 +118,12 @@ export function useSeries(
 }
 
 /** Scatter samples for the range chart. */
-export function usePoints(runId: number, fields: readonly SeriesField[], points: number, runVersion?: string) {
-  return useSWR<PointsResponse, Error>(pointsUrl(runId, fields, points, runVersion), fetchJson, swrOptions);
+export function usePoints(runId: number, fields: readonly SeriesField[], points: number, runVersion?: string, apiBase?: string) {
+  return useSWR<PointsResponse, Error>(pointsUrl(runId, fields, points, runVersion, apiBase), fetchJson, swrOptions);
 }
 
 /** Which of `fields` the run has no value for anywhere (asked only when `enabled`). */
-export function useAbsentFields(runId: number, fields: readonly SeriesField[], enabled: boolean, runVersion?: string): SeriesField[] | null {
-  const res = useSWR<SeriesResponse, Error>(enabled ? seriesUrl(runId, fields, null, 100, runVersion) : null, fetchJson, swrOptions);
+export function useAbsentFields(runId: number, fields: readonly SeriesField[], enabled: boolean, runVersion?: string, apiBase?: string): SeriesField[] | null {
+  const res = useSWR<SeriesResponse, Error>(enabled ? seriesUrl(runId, fields, null, 100, runVersion, apiBase) : null, fetchJson, swrOptions);
   return res.data ? res.data.absent : null;
 }

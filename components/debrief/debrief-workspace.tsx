@@ -13,6 +13,8 @@ export interface DebriefWorkspaceProps {
   runId: number;
   /** The run's data version (changes with every re-parse); keys every data request. */
   version: string;
+  /** Where the charts and map fetch from; default `/api/runs/{runId}` (the shared page passes `/api/share/{token}`). */
+  apiBase?: string;
   durationS: number;
   events: DebriefEvent[];
   fieldsPresent: string[];
@@ -119,6 +121,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
           <ChartGroup
             runId={runId}
             version={props.version}
+            apiBase={props.apiBase}
             panels={panels}
             durationS={durationS}
             range={range}
@@ -134,6 +137,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
           <TrackMap
             runId={runId}
             version={props.version}
+            apiBase={props.apiBase}
             plan={props.plan}
             home={props.home}
             events={mapEvents}

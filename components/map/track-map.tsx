@@ -9,6 +9,7 @@ import "leaflet/dist/leaflet.css";
 import type * as Leaflet from "leaflet";
 import { useEffect, useRef, useState, type ReactNode } from "react";
 import useSWR from "swr";
+import { trackUrl } from "@/components/charts/series-request";
 import type { TrackResponse } from "@/lib/series/types";
 import { formatDegrees, graticuleStep, graticuleValues } from "./graticule";
 import { binColour, linkBin, linkScale, type LinkScale } from "./link-colour";
@@ -36,6 +37,8 @@ export interface TrackMapProps {
   runId: number;
   /** The run's data version; changes on every re-parse so no cached track outlives it. */
   version?: string;
+  /** Where the data endpoints live; default `/api/runs/{runId}` (the shared page passes its share link's). */
+  apiBase?: string;
   /** The route plan: dashed line through the waypoints, numbered marks, acceptance circles. */
   plan: { name: string; waypoints: MapWaypoint[] } | null;
   home: { lat: number; lon: number } | null;
@@ -152,6 +155,7 @@ function extendWithTrack(bounds: Leaflet.LatLngBounds, data: TrackResponse, from
 export function TrackMap({
   runId,
   version,
+  apiBase,
   plan,
   home,
   events,
@@ -168,7 +172,7 @@ export function TrackMap({
   const [ctx, setCtx] = useState<Ctx | null>(null);
   const [trackInfo, setTrackInfo] = useState<{ points: number; noValue: boolean }>({ points: 0, noValue: false });
 
-  const { data, error, isLoading, mutate } = useSWR<TrackResponse>(`/api/runs/${runId}/track${version ? `?v=${encodeURIComponent(version)}` : ""}`, fetchTrack, {
+  const { data, error, isLoading, mutate } = useSWR<TrackResponse>(trackUrl(runId, version, apiBase), fetchTrack, {
     revalidateOnFocus: false,
   });
   const track = data && data.runId === runId ? data : undefined;

@@ -1,12 +1,8 @@
+import { safetyTexts, type SafetyTopic } from "./safety-texts";
+
 /** The standing cautions: Sortie reviews runs, it does not certify anything. */
-export function SafetyNote({ topic = "general" }: { topic?: "general" | "failsafe" | "battery" | "range" }) {
-  const text = {
-    general:
-      "Sortie is review software, not an airworthiness or certification tool. Follow your local aviation authority's rules (line of sight, altitude limits, registration) and your local radio-power limits.",
-    failsafe: "Bench-test failsafes with propellers off and wheels lifted. Confirm the result on the bench before the next run.",
-    battery: "Lithium batteries can catch fire when over-discharged, damaged or charged wrongly. Charge on a fire-safe surface, never unattended.",
-    range: "A range estimate comes from one run and does not replace a range check before flight.",
-  }[topic];
+export function SafetyNote({ topic = "general" }: { topic?: SafetyTopic }) {
+  const text = safetyTexts[topic];
   return (
     <aside className="flex gap-3 rounded-md border-l-4 border-signal-500 bg-signal-100 px-4 py-3 text-sm text-ink" role="note">
       <svg viewBox="0 0 24 24" className="mt-0.5 h-5 w-5 shrink-0 text-signal-700" fill="none" stroke="currentColor" strokeWidth="2" aria-hidden="true">

@@ -1,4 +1,4 @@
-import { double, float, index, int, json, mysqlEnum, mysqlTable, primaryKey, smallint, text, tinyint, varchar } from "drizzle-orm/mysql-core";
+import { double, float, index, int, json, mysqlEnum, mysqlTable, primaryKey, smallint, text, tinyint, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
 import { crews } from "./crews";
 import { createdAt, id, lifecycleDates, ms, ref } from "./util/columns";
 import { users } from "./users";
@@ -77,6 +77,29 @@ export const buildChanges = mysqlTable(
   (t) => [index("build_changes_build_idx").on(t.buildId, t.createdAt)],
 );
 
+/**
+ * Photos of a build, kept in object storage. A row is written when the upload is presigned and
+ * counts as a photo only once `storedAt` is set (the complete step checked size and type).
+ */
+export const buildPhotos = mysqlTable(
+  "build_photos",
+  {
+    id: id(),
+    buildId: ref().notNull().references(() => builds.id, { onDelete: "cascade" }),
+    uploadedBy: ref().references(() => users.id, { onDelete: "set null" }),
+    objectKey: varchar({ length: 512 }).notNull(),
+    fileName: varchar({ length: 160 }).notNull(),
+    contentType: varchar({ length: 40 }).notNull(),
+    sizeBytes: int({ unsigned: true }).notNull(),
+    caption: varchar({ length: 200 }),
+    createdAt: createdAt(),
+    storedAt: ms(),
+  },
+  (t) => [index("build_photos_build_idx").on(t.buildId, t.createdAt), uniqueIndex("build_photos_object_key_uq").on(t.objectKey)],
+);
+
 export type Build = typeof builds.$inferSelect;
 export type NewBuild = typeof builds.$inferInsert;
 export type BuildChannel = typeof buildChannels.$inferSelect;
+export type BuildChange = typeof buildChanges.$inferSelect;
+export type BuildPhoto = typeof buildPhotos.$inferSelect;

@@ -4,6 +4,7 @@ import type { PoolConnection } from "mysql2/promise";
 import { db, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
 import { events, runs, type RunWarning } from "@/db/schema";
+import { alertAfterAnalysis } from "@/lib/alerts/run-alert";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { SeriesCollector } from "@/lib/analysis/series-collector";
 import type { AnalysisEvent } from "@/lib/analysis/types";
@@ -141,6 +142,8 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
       })
       .where(eq(runs.id, runId));
     await conn.commit();
+    // After the commit, never awaited: mail must not hold up or fail the ingest.
+    alertAfterAnalysis(runId, run.verdict ?? null);
   } catch (e) {
     await load?.abort();
     await conn?.rollback().catch(() => {});

@@ -5,7 +5,8 @@ export function escapeHtml(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 }
 
-function layout(title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): string {
+/** The one look of Sortie's mails: `title`, `paragraphs` and `footer` are HTML the caller has escaped. */
+export function layout(title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): string {
   const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${p}</p>`).join("");
   return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#0b1d2a;background:#f3f6f4;padding:24px">
 <div style="max-width:520px;margin:auto;background:#fff;border-radius:10px;padding:24px;border:1px solid #d5dfd9">

@@ -40,9 +40,9 @@ function describeStatus(run: Run): string {
   return `This run is ${run.status}; its series can be read once it is ready`;
 }
 
-async function readableRun(actor: Actor, runId: number): Promise<Run> {
+/** The access check of the run routes: the actor may read the run in its own crew (404 otherwise). */
+export async function requireReadableRun(actor: Actor, runId: number): Promise<Run> {
   const { record } = await requireRecordPermission(actor, () => getRun(runId), "read", "Run");
-  if (record.status !== "ready") throw new ConflictError(describeStatus(record));
   return record;
 }
 
@@ -133,26 +133,46 @@ async function withLevels<T>(run: Run, read: Reader<T>): Promise<{ value: T; run
   return { value: await read(built.source, dbSampleSource(pool(), run.id), built.loaded), run: current };
 }
 
-async function cachedRead<T>(actor: Actor, runId: number, kind: string, v: string | undefined, ifNoneMatch: string | null, read: Reader<T>): Promise<Cached<T & { runId: number; version: string }>> {
-  const run = await readableRun(actor, runId);
+async function cachedRead<T>(run: Run, kind: string, v: string | undefined, ifNoneMatch: string | null, read: Reader<T>): Promise<Cached<T & { runId: number; version: string }>> {
+  if (run.status !== "ready") throw new ConflictError(describeStatus(run));
   const etagOf = (r: Run) => `"${kind}-${r.id}-${versionOf(r)}"`;
   if (etagMatches(ifNoneMatch, etagOf(run))) return { body: null, etag: etagOf(run), cacheControl: cacheControlFor(v, versionOf(run)) };
   const { value, run: current } = await withLevels(run, read);
   const version = versionOf(current);
-  return { body: { runId, version, ...value }, etag: etagOf(current), cacheControl: cacheControlFor(v, version) };
+  return { body: { runId: run.id, version, ...value }, etag: etagOf(current), cacheControl: cacheControlFor(v, version) };
+}
+
+/*
+ * The reads take a run whose access was already checked: the run routes check the actor's crew
+ * (below), the share routes a share token (lib/share); both then serve the same answers.
+ */
+
+/** The series of a run the caller may read. */
+export function readRunSeries(run: Run, q: SeriesQueryInput, ifNoneMatch: string | null): Promise<Cached<SeriesResponse>> {
+  return cachedRead(run, "series", q.v, ifNoneMatch, (src, samples, loaded) => readSeries(src, samples, loaded, q));
+}
+
+/** The track overview of a run the caller may read. */
+export function readRunTrack(run: Run, q: { v?: string }, ifNoneMatch: string | null): Promise<Cached<TrackResponse>> {
+  return cachedRead(run, "track", q.v, ifNoneMatch, (src, _samples, loaded) => readTrack(src, loaded));
+}
+
+/** The scatter points of a run the caller may read. */
+export function readRunPoints(run: Run, q: PointsQueryInput, ifNoneMatch: string | null): Promise<Cached<PointsResponse>> {
+  return cachedRead(run, "points", q.v, ifNoneMatch, (src, samples, loaded) => readPoints(src, samples, loaded, q));
 }
 
 /** `GET /api/runs/{id}/series`. */
-export function getRunSeries(actor: Actor, runId: number, q: SeriesQueryInput, ifNoneMatch: string | null): Promise<Cached<SeriesResponse>> {
-  return cachedRead(actor, runId, "series", q.v, ifNoneMatch, (src, samples, loaded) => readSeries(src, samples, loaded, q));
+export async function getRunSeries(actor: Actor, runId: number, q: SeriesQueryInput, ifNoneMatch: string | null): Promise<Cached<SeriesResponse>> {
+  return readRunSeries(await requireReadableRun(actor, runId), q, ifNoneMatch);
 }
 
 /** `GET /api/runs/{id}/track`. */
-export function getRunTrack(actor: Actor, runId: number, q: { v?: string }, ifNoneMatch: string | null): Promise<Cached<TrackResponse>> {
-  return cachedRead(actor, runId, "track", q.v, ifNoneMatch, (src, _samples, loaded) => readTrack(src, loaded));
+export async function getRunTrack(actor: Actor, runId: number, q: { v?: string }, ifNoneMatch: string | null): Promise<Cached<TrackResponse>> {
+  return readRunTrack(await requireReadableRun(actor, runId), q, ifNoneMatch);
 }
 
 /** `GET /api/runs/{id}/points`. */
-export function getRunPoints(actor: Actor, runId: number, q: PointsQueryInput, ifNoneMatch: string | null): Promise<Cached<PointsResponse>> {
-  return cachedRead(actor, runId, "points", q.v, ifNoneMatch, (src, samples, loaded) => readPoints(src, samples, loaded, q));
+export async function getRunPoints(actor: Actor, runId: number, q: PointsQueryInput, ifNoneMatch: string | null): Promise<Cached<PointsResponse>> {
+  return readRunPoints(await requireReadableRun(actor, runId), q, ifNoneMatch);
 }

@@ -9,6 +9,7 @@ import { db } from "@/db/client";
 import { demoCrew } from "@/db/demo-crew";
 import { getUserWithSecretByEmail } from "@/db/queries/users";
 import { builds, crews, routePlans, uploads } from "@/db/schema";
+import { alertsIdle } from "@/lib/alerts/run-alert";
 import type { Actor } from "@/lib/auth/actor";
 import { ingestIdle } from "@/lib/ingest/ingest-queue";
 import { completeUpload, createUpload } from "@/lib/ingest/uploads";
@@ -45,5 +46,7 @@ export async function seedDemoRuns(): Promise<{ added: number; skipped: number }
     added++;
   }
   await ingestIdle();
+  // An "act" demo run mails the demo lead; let that finish before the caller closes the database.
+  await alertsIdle();
   return { added, skipped };
 }

@@ -1,15 +1,20 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { MoveRunForm } from "@/components/builds/move-run-form";
 import { RangeChart } from "@/components/charts/range-chart";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
+import { ExportLinks } from "@/components/runs/export-links";
 import { formatBytes } from "@/components/runs/format-bytes";
+import { PdfLink } from "@/components/runs/pdf-link";
 import { ReparseButton } from "@/components/runs/reparse-button";
 import { RunStatusPoller } from "@/components/runs/run-status-poller";
 import { runStatusText } from "@/components/runs/run-status-text";
+import { SharePanel } from "@/components/share/share-panel";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
 import { SafetyNote } from "@/components/ui/safety-note";
+import { listBuilds } from "@/db/queries/builds";
 import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
 import { env } from "@/lib/env";
@@ -70,6 +75,8 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
   const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
   const range = summary.range;
   const failsafeExercised = summary.failsafe && summary.failsafe.result !== "not-tested";
+  const mayShare = can(d.role as never, "share");
+  const builds = run.mayEdit ? (await listBuilds(run.crewId)).map((b) => ({ id: b.id, name: b.name })) : [];
 
   return (
     <>
@@ -207,6 +214,28 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
         )}
         {mayNote && <NoteForm runId={run.id} />}
       </section>
+
+      {ready && (
+        <section className="panel mt-6" aria-labelledby="share-title">
+          <h2 id="share-title" className="text-lg font-semibold">
+            Share and export
+          </h2>
+          <div className="mt-3 flex flex-wrap gap-2">
+            <PdfLink runId={run.id} />
+            <ExportLinks runId={run.id} />
+          </div>
+          {mayShare && (
+            <div className="mt-4 border-t border-rule pt-4">
+              <SharePanel runId={run.id} />
+            </div>
+          )}
+          {run.mayEdit && (
+            <div className="mt-4 border-t border-rule pt-4">
+              <MoveRunForm runId={run.id} currentBuildId={run.buildId} builds={builds} />
+            </div>
+          )}
+        </section>
+      )}
 
       {ready && (
         <section className="mt-6 grid gap-3 md:grid-cols-2" aria-label="Cautions">

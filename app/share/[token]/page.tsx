@@ -1,0 +1,195 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { RangeChart } from "@/components/charts/range-chart";
+import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
+import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
+import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
+import { SafetyNote } from "@/components/ui/safety-note";
+import { env } from "@/lib/env";
+import { formatDistance, formatSpan } from "@/lib/format/units";
+import { openSharedDebrief } from "@/lib/share/shared-debrief";
+
+// Every load checks the link (expiry, withdrawal) and counts one view: never cached.
+export const dynamic = "force-dynamic";
+
+export const metadata: Metadata = {
+  title: "Shared debrief",
+  robots: { index: false, follow: false, nocache: true },
+  // The token is in the URL: map tiles and other requests must not carry it in a Referer.
+  referrer: "no-referrer",
+};
+
+const utc = (d: Date) => d.toISOString().replace("T", " ").slice(0, 16) + " UTC";
+
+const verdictLook = {
+  act: { title: "Act before the next run", cls: "border-act", mark: "■" },
+  watch: { title: "Watch", cls: "border-watch", mark: "▲" },
+  clear: { title: "Clear", cls: "border-clear", mark: "●" },
+} as const;
+
+/** A debrief for someone without an account: read-only, and only this run. */
+export default async function SharedDebriefPage({ params }: { params: Promise<{ token: string }> }) {
+  const token = (await params).token;
+  const d = await openSharedDebrief(token);
+  if (!d) notFound();
+  const { run } = d;
+  const units = "metric" as const;
+  const apiBase = `/api/share/${encodeURIComponent(token)}`;
+  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: keyof typeof verdictLook; reasons: string[] }; fieldsPresent?: string[] };
+  const ready = run.status === "ready";
+  const verdict = ready ? (summary.verdict ?? null) : null;
+  const look = verdict ? verdictLook[verdict.level] : null;
+  const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
+  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
+  const range = summary.range;
+  const failsafeExercised = summary.failsafe && summary.failsafe.result !== "not-tested";
+
+  return (
+    <>
+      <header className="mb-4 flex flex-col gap-3 border-b border-rule pb-4 sm:flex-row sm:items-end sm:justify-between">
+        <div className="min-w-0">
+          <p className="text-sm text-ink-soft">Debrief shared with you · link valid until {utc(d.expiresAt)}</p>
+          <h1 className="text-2xl font-bold tracking-tight break-words" data-testid="shared-title">
+            {run.title}
+          </h1>
+          {meta && <p className="mt-1 text-ink-soft">{meta}</p>}
+          {run.note && <p className="mt-1 max-w-prose text-sm whitespace-pre-wrap break-words">{run.note}</p>}
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <FieldModeToggle />
+        </div>
+      </header>
+
+      {!ready && (
+        <p className="panel mb-4 text-sm" role="status">
+          This debrief is being updated right now. Reload the page in a minute.
+        </p>
+      )}
+
+      {verdict && look && (
+        <section aria-label="Verdict" data-testid="verdict" className={`mb-4 flex flex-col gap-3 rounded-lg border-l-8 bg-card p-4 sm:flex-row sm:items-start sm:justify-between ${look.cls}`}>
+          <div>
+            <p className="text-lg font-bold">
+              <span aria-hidden="true">{look.mark} </span>
+              {look.title}
+            </p>
+            {verdict.reasons.length > 0 ? (
+              <ul className="mt-1 list-disc pl-5 text-sm">
+                {verdict.reasons.map((r) => (
+                  <li key={r}>{r}</li>
+                ))}
+              </ul>
+            ) : (
+              <p className="mt-1 text-sm">No rule fired: the link held, the failsafe was not needed, the route and battery stayed in limits.</p>
+            )}
+          </div>
+          <div className="text-sm sm:text-right" data-testid="sign-off">
+            {d.signOff ? (
+              <p>
+                <span className="font-semibold">Signed off</span> by {d.signOff.by}
+                <br />
+                <span className="figures text-ink-soft">{utc(d.signOff.at)}</span>
+              </p>
+            ) : (
+              <p className="text-ink-soft">Not signed off yet.</p>
+            )}
+          </div>
+        </section>
+      )}
+
+      {ready && <SummaryFigures summary={summary} units={units} />}
+
+      {ready && run.sampleCount > 0 && (
+        <DebriefWorkspace
+          runId={run.id}
+          version={d.dataVersion}
+          apiBase={apiBase}
+          durationS={run.durationS ?? summary.durationS ?? 0}
+          events={d.events}
+          fieldsPresent={summary.fieldsPresent ?? []}
+          hasPlan={Boolean(d.plan)}
+          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold }}
+          units={units}
+          plan={d.plan}
+          home={(run.summary?.home as { lat: number; lon: number } | null) ?? null}
+          tileUrl={env().MAP_TILE_URL ?? null}
+          tileAttribution={env().MAP_TILE_ATTRIBUTION ?? null}
+        />
+      )}
+
+      {ready && (
+        <section className="panel mt-6" aria-labelledby="range-title">
+          <h2 id="range-title" className="text-lg font-semibold">
+            Range: signal against distance
+          </h2>
+          <p className="mt-1 max-w-prose text-sm text-ink-soft">
+            Each dot is a sample with RSSI in dBm and a position. The solid line is the log-distance fit of this run; the dashed line
+            falls 20 dB per decade as in free space. Where the fit meets the threshold (receiver sensitivity plus the fade margin) is
+            the estimate{range?.estimatedRangeM != null ? `: ${formatDistance(range.estimatedRangeM, units)}` : ""}.
+          </p>
+          <div className="mt-3">
+            <RangeChart
+              runId={run.id}
+              version={d.dataVersion}
+              apiBase={apiBase}
+              fit={range?.p0Dbm != null && range.pathLossExponent != null ? { p0Dbm: range.p0Dbm, pathLossExponent: range.pathLossExponent } : null}
+              thresholdDbm={range?.thresholdDbm ?? null}
+              estimatedRangeM={range?.estimatedRangeM ?? null}
+              distanceUnit="m"
+            />
+          </div>
+          <div className="mt-3">
+            <SafetyNote topic="range" />
+          </div>
+        </section>
+      )}
+
+      <section className="panel mt-6" aria-labelledby="notes-title">
+        <h2 id="notes-title" className="text-lg font-semibold">
+          Notes <span className="figures text-ink-soft">({d.notes.length})</span>
+        </h2>
+        {d.notes.length === 0 ? (
+          <p className="mt-1 text-sm text-ink-soft">No notes on this debrief.</p>
+        ) : (
+          <ol className="mt-2 space-y-3" data-testid="notes">
+            {d.notes.map((n) => (
+              <li key={n.id} className="border-l-4 border-tide-300 pl-3">
+                <p className="text-sm whitespace-pre-wrap break-words">{n.body}</p>
+                <p className="mt-1 text-xs text-ink-soft">
+                  {n.authorName ?? "a former member"} · <span className="figures">{utc(n.createdAt)}</span>
+                </p>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+
+      {ready && (
+        <section className="mt-6 grid gap-3 md:grid-cols-2" aria-label="Cautions">
+          {failsafeExercised && <SafetyNote topic="failsafe" />}
+          {summary.power?.minCellV != null && <SafetyNote topic="battery" />}
+          <SafetyNote topic="general" />
+        </section>
+      )}
+
+      <section className="panel mt-6" aria-labelledby="log-title">
+        <h2 id="log-title" className="text-lg font-semibold">
+          The log
+        </h2>
+        <dl className="mt-3 grid grid-cols-2 gap-3 text-sm md:grid-cols-4">
+          {[
+            ["Format", run.format ? run.format.toUpperCase() : "—"],
+            ["Samples", run.sampleCount.toLocaleString("en")],
+            ["Duration", formatSpan(run.durationS)],
+            ["Started", run.startedAt ? utc(run.startedAt) : "not in the log"],
+          ].map(([label, value]) => (
+            <div key={label}>
+              <dt className="text-ink-soft">{label}</dt>
+              <dd className="figures mt-0.5 break-words">{value}</dd>
+            </div>
+          ))}
+        </dl>
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,122 @@
+/**
+ * E-mail alerts when a run's analysis says "act": every lead of the run's crew who has verdict
+ * alerts on (users.alertEmails, in Settings) gets one mail, in their own units.
+ *
+ * Once per outcome, without a table of its own: each alert that went out is an audit entry
+ * ("run.alert-sent", target the run). After an analysis that says "act":
+ *   - the verdict before this analysis was not "act" (first parse, or a re-parse after clear or
+ *     watch) → send: this is a new act outcome;
+ *   - it was "act" already → send only if no alert was ever recorded for the run (the earlier one
+ *     found no recipient, or every send failed); otherwise this re-parse repeats an outcome the
+ *     leads already know about.
+ * A send to a lead that fails is logged and skipped; the entry is written when at least one mail
+ * went out. Nothing here can fail or delay the ingest that triggered it.
+ */
+import { and, eq } from "drizzle-orm";
+import { db } from "@/db/client";
+import { auditLog, builds, crews, memberships, runs, users, type VerdictLevel } from "@/db/schema";
+import type { RunSummary } from "@/components/debrief/figure-list";
+import { audit } from "@/lib/audit";
+import { env } from "@/lib/env";
+import { runAlertMail } from "@/lib/mail/run-alert-mail";
+import { sendMail } from "@/lib/mail/transport";
+
+export const ALERT_ACTION = "run.alert-sent";
+
+export type AlertResult =
+  | { sent: number; failed: number; recipients: number[] }
+  | { skipped: "not-ready" | "not-act" | "already-sent" | "no-recipients" };
+
+/** Alerts per run run one after another (a quick re-parse must see the previous alert's entry). */
+const g = globalThis as unknown as { sortieRunAlerts?: Map<number, Promise<unknown>> };
+const chains = (g.sortieRunAlerts ??= new Map<number, Promise<unknown>>());
+
+/**
+ * The ingest hook: called once after a run's analysis committed, with the verdict the run had
+ * before it. Returns at once; errors are logged, never thrown.
+ */
+export function alertAfterAnalysis(runId: number, previousVerdict: VerdictLevel | null): void {
+  try {
+    const prev = chains.get(runId) ?? Promise.resolve();
+    const job: Promise<unknown> = prev
+      .catch(() => {})
+      .then(() => sendRunAlert(runId, previousVerdict))
+      .catch((e: unknown) => console.error(`[alerts] run ${runId}: ${(e as Error).message}`))
+      .finally(() => {
+        if (chains.get(runId) === job) chains.delete(runId);
+      });
+    chains.set(runId, job);
+  } catch (e) {
+    console.error(`[alerts] run ${runId}: ${(e as Error).message}`);
+  }
+}
+
+/** Resolves when no alert is being worked on (for scripts that close the database afterwards). */
+export async function alertsIdle(): Promise<void> {
+  while (chains.size) await Promise.allSettled([...chains.values()]);
+}
+
+async function alreadyAlerted(runId: number): Promise<boolean> {
+  const [row] = await db()
+    .select({ id: auditLog.id })
+    .from(auditLog)
+    .where(and(eq(auditLog.action, ALERT_ACTION), eq(auditLog.targetType, "run"), eq(auditLog.targetId, String(runId))))
+    .limit(1);
+  return Boolean(row);
+}
+
+/** Leads of the crew who want verdict alerts. */
+function alertedLeads(crewId: number) {
+  return db()
+    .select({ id: users.id, email: users.email, name: users.name, units: users.units })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.crewId, crewId), eq(memberships.role, "lead"), eq(users.alertEmails, true)));
+}
+
+/** Decides and sends (see the file comment). Exported for tests and scripts; the ingest uses alertAfterAnalysis. */
+export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel | null): Promise<AlertResult> {
+  const [run] = await db().select().from(runs).where(eq(runs.id, runId)).limit(1);
+  if (!run || run.status !== "ready") return { skipped: "not-ready" };
+  if (run.verdict !== "act") return { skipped: "not-act" };
+  if (previousVerdict === "act" && (await alreadyAlerted(runId))) return { skipped: "already-sent" };
+
+  const leads = await alertedLeads(run.crewId);
+  if (leads.length === 0) return { skipped: "no-recipients" };
+  const [[crew], [build], [pilot]] = await Promise.all([
+    db().select({ name: crews.name }).from(crews).where(eq(crews.id, run.crewId)).limit(1),
+    run.buildId ? db().select({ name: builds.name }).from(builds).where(eq(builds.id, run.buildId)).limit(1) : Promise.resolve([]),
+    run.pilotId ? db().select({ name: users.name }).from(users).where(eq(users.id, run.pilotId)).limit(1) : Promise.resolve([]),
+  ]);
+  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: string; reasons: string[] } };
+  const reasons = summary.verdict?.reasons ?? [];
+  const appUrl = env().APP_URL.replace(/\/+$/, "");
+
+  const sentTo: number[] = [];
+  let failed = 0;
+  for (const lead of leads) {
+    const mail = runAlertMail({
+      to: lead.email,
+      name: lead.name,
+      units: lead.units,
+      crewName: crew?.name ?? "your crew",
+      run: { id: run.id, title: run.title, startedAt: run.startedAt, summary },
+      reasons,
+      buildName: build?.name ?? null,
+      pilotName: pilot?.name ?? null,
+      url: `${appUrl}/runs/${run.id}`,
+      settingsUrl: `${appUrl}/settings`,
+    });
+    try {
+      await sendMail(mail);
+      sentTo.push(lead.id);
+    } catch (e) {
+      failed++;
+      console.error(`[alerts] mail about run ${run.id} to user ${lead.id} failed: ${(e as Error).message}`);
+    }
+  }
+  if (sentTo.length) {
+    await audit({ crewId: run.crewId, action: ALERT_ACTION, targetType: "run", targetId: run.id, detail: { verdict: "act", reasons, recipients: sentTo, previousVerdict } });
+  }
+  return { sent: sentTo.length, failed, recipients: sentTo };
+}

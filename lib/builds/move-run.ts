@@ -1,0 +1,40 @@
+import { and, eq, notInArray } from "drizzle-orm";
+import { db } from "@/db/client";
+import { getBuild } from "@/db/queries/builds";
+import { getRun } from "@/db/queries/runs";
+import { runs } from "@/db/schema";
+import { audit } from "@/lib/audit";
+import { requireRecordPermission } from "@/lib/auth/access";
+import type { Actor } from "@/lib/auth/actor";
+import { can } from "@/lib/auth/roles";
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
+import { ingestBusy, startIngest } from "@/lib/ingest/ingest-queue";
+
+const BUSY = "This run is being read right now; wait for it to finish";
+
+/**
+ * Attaches a run to another build of its own crew (or to none) and reads it again, so the failsafe
+ * plan, link sheet, sensitivity and band of the new build apply. Leads may move any run, pilots
+ * their own. The build change and the re-queue are one conditional update, so a run already being
+ * read is refused rather than analysed with the old build.
+ */
+export async function moveRunToBuild(actor: Actor, runId: number, buildId: number | null) {
+  const { record: run, access } = await requireRecordPermission(actor, () => getRun(runId), "editOwnRun", "Run");
+  if (!can(access.role, "delete") && run.pilotId !== actor.user.id) throw new ForbiddenError("Only the run's pilot or a lead can move it to another build");
+  if (buildId !== null) {
+    const build = await getBuild(buildId);
+    // Another crew's build is simply not found.
+    if (!build || build.crewId !== run.crewId) throw new NotFoundError("Build");
+    if (build.retiredAt) throw new ValidationError("That build is retired; bring it back first", { fields: { buildId: ["Choose a build in service"] } });
+  }
+  if (run.buildId === buildId) return { runId, buildId, status: run.status, requeued: false };
+  if (ingestBusy(runId)) throw new ConflictError(BUSY);
+  const [claim] = await db()
+    .update(runs)
+    .set({ buildId, status: "queued", progress: 0, error: null })
+    .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
+  if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(BUSY);
+  await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.build-changed", targetType: "run", targetId: runId, detail: { from: run.buildId, to: buildId } });
+  startIngest(runId);
+  return { runId, buildId, status: "queued" as const, requeued: true };
+}

@@ -1,18 +1,35 @@
 import { NextResponse, type NextRequest } from "next/server";
+import { contentSecurityPolicy, securityHeaders } from "@/lib/api/security-headers";
+import { env } from "@/lib/env";
 
-/** Passes the requested path to server components so sign-in can send people back to it. */
+/**
+ * Runs on every page and API request: passes the requested path to server components (so sign-in
+ * can send people back to it) and sets the security headers (ASVS V14.4). Done here rather than in
+ * next.config.ts headers(), which are fixed at build time, because the CSP carries a per-request
+ * nonce and the S3 / map-tile origins and HTTPS come from runtime settings.
+ */
 export function proxy(req: NextRequest) {
+  const e = env();
+  const path = req.nextUrl.pathname;
+  const isApi = path.startsWith("/api/");
+  // Next reads the nonce from the request's CSP header and puts it on its own inline and chunk
+  // scripts (every page is rendered per request: the root layout reads a cookie).
+  const nonce = isApi ? undefined : Buffer.from(crypto.getRandomValues(new Uint8Array(16))).toString("base64");
+  const csp = contentSecurityPolicy(e, { nonce, dev: e.NODE_ENV === "development" });
+
   const headers = new Headers(req.headers);
-  headers.set("x-sortie-path", req.nextUrl.pathname + req.nextUrl.search);
+  headers.set("x-sortie-path", path + req.nextUrl.search);
+  if (!isApi) headers.set("content-security-policy", csp);
   const res = NextResponse.next({ request: { headers } });
-  // A shared debrief's URL is its key: never pass it on as a Referer, and keep it out of search indexes.
-  if (req.nextUrl.pathname.startsWith("/share/")) {
-    res.headers.set("referrer-policy", "no-referrer");
-    res.headers.set("x-robots-tag", "noindex, nofollow");
-  }
+
+  res.headers.set("content-security-policy", csp);
+  for (const [k, v] of Object.entries(securityHeaders(e, path))) res.headers.set(k, v);
+  // A shared debrief's URL is its key: keep it out of search indexes (no-referrer is set above).
+  if (path.startsWith("/share/")) res.headers.set("x-robots-tag", "noindex, nofollow");
   return res;
 }
 
 export const config = {
-  matcher: ["/((?!api|_next/static|_next/image|favicon.ico|fonts).*)"],
+  // Static chunks and fonts get their headers from next.config.ts.
+  matcher: ["/((?!_next/static|_next/image|favicon.ico|fonts).*)"],
 };

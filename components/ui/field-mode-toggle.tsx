@@ -12,7 +12,10 @@ export function FieldModeToggle() {
     setOn(next);
     if (next) document.documentElement.dataset.fieldMode = "on";
     else delete document.documentElement.dataset.fieldMode;
-    document.cookie = `${FIELD_MODE_COOKIE}=${next ? "on" : ""}; path=/; max-age=${next ? 31_536_000 : 0}; samesite=lax`;
+    // Set by script, so it cannot be HttpOnly; it holds only a display preference (ASVS V3.4.1–3.4.3:
+    // Secure over https, SameSite=Lax).
+    const secure = location.protocol === "https:" ? "; secure" : "";
+    document.cookie = `${FIELD_MODE_COOKIE}=${next ? "on" : ""}; path=/; max-age=${next ? 31_536_000 : 0}; samesite=lax${secure}`;
   };
   return (
     <button type="button" className="btn-quiet" aria-pressed={on} onClick={toggle} data-testid="field-mode">

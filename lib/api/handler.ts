@@ -1,19 +1,27 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { HttpError, NotFoundError, RateLimitedError, ValidationError } from "@/lib/errors";
+import { env } from "@/lib/env";
 import { isDatabaseDown } from "./database-down";
+import { crossSiteProblem, sameOriginInputFromRequest } from "./same-origin";
 
 type RouteContext<P> = { params: Promise<P> };
 
 /**
  * Wraps a route handler: one place maps domain errors to status codes and JSON bodies
  * ({ error: { code, message, details? } }), so handlers stay a few lines of wiring.
+ *
+ * It also refuses cross-site unsafe requests that ride on the session cookie (ASVS V4.2.2,
+ * V13.2.3): see same-origin.ts. Server actions are not routed here; Next itself compares their
+ * Origin with the Host (and serverActions.allowedOrigins) before running one.
  */
 export function apiRoute<P = Record<string, never>>(
   handler: (req: Request, ctx: { params: P }) => Promise<Response | unknown>,
 ) {
   return async (req: Request, ctx: RouteContext<P>): Promise<Response> => {
     try {
+      const csrf = crossSiteProblem(sameOriginInputFromRequest(req, new URL(env().APP_URL).origin));
+      if (csrf) throw new HttpError(403, "csrf", "Refused: this request did not come from Sortie itself", { reason: csrf.slice(0, 200) });
       const params = ctx?.params ? await ctx.params : ({} as P);
       const out = await handler(req, { params });
       return out instanceof Response ? out : NextResponse.json(out);

@@ -16,6 +16,8 @@ export function authOptions(): NextAuthOptions {
     secret: env().NEXTAUTH_SECRET,
     session: { strategy: "jwt", maxAge: 14 * 24 * 3600 },
     pages: { signIn: "/sign-in", error: "/sign-in" },
+    // next-auth's cookies are HttpOnly, SameSite=Lax and path / by default; over https they are
+    // also Secure and __Secure- prefixed (ASVS V3.4.1, V3.4.2, V3.4.3, V3.4.5).
     useSecureCookies: secure,
     providers: [
       CredentialsProvider({
@@ -28,12 +30,17 @@ export function authOptions(): NextAuthOptions {
           const { email, password } = parsed.data;
           const ip = clientIp(req?.headers ?? {});
           const limit = await loginBlocked(email, ip);
-          if (limit.blocked) throw new Error(SIGN_IN_RATE_LIMITED);
+          if (limit.blocked) {
+            await audit({ action: "sign-in.rate-limited", detail: { email }, ip });
+            throw new Error(SIGN_IN_RATE_LIMITED);
+          }
           const user = await getUserWithSecretByEmail(email);
           const ok = user ? await verifyPassword(password, user.passwordHash) : (await burnPasswordCheck(password), false);
           await recordLoginAttempt(email, ip, ok);
           if (!user || !ok) {
-            await audit({ action: "sign-in.failed", detail: { email }, ip });
+            // ASVS V7.1.3, V7.2.1: every sign-in decision is logged with the client address; a failure
+            // against a real account names it, so its crews' leads see attempts on their members.
+            await audit({ action: "sign-in.failed", ...(user ? { targetType: "user", targetId: user.id } : {}), detail: { email }, ip });
             return null;
           }
           await audit({ actorId: user.id, action: "sign-in", targetType: "user", targetId: user.id, ip });

@@ -84,7 +84,9 @@ async function existingResult(uploadId: number, crewId: number, sha256: string |
 }
 
 function titleFor(fileName: string): string {
-  return fileName.replace(/\.[a-z0-9]{1,5}$/i, "").slice(0, 160) || "Run";
+  // The base name only: a name like "../../x.csv" or "C:\\logs\\x.csv" must not carry a path into the title.
+  const base = fileName.split(/[\\/]/).filter(Boolean).pop() ?? "";
+  return base.replace(/\.[a-z0-9]{1,5}$/i, "").slice(0, 160) || "Run";
 }
 
 /**

@@ -83,8 +83,8 @@ function chooseDelimiter(text: string, newline: Newline): string {
  * line break, the header and the first 20 data rows, and proposes a column map.
  * A BOM is dropped. Pass `truncated: true` when `head` was cut from a longer file, so its last,
  * possibly partial line is not read.
- * @throws ParseError for binary data, an empty file, a header with no data rows, or a first row
- *   of numbers instead of column names.
+ * @throws ParseError for binary data, an empty file, no header row (only empty fields), a header
+ *   with no data rows, or a first row of numbers instead of column names.
  * @example sniffCsv("time;alt\n0;12,5\n").decimal // ","
  */
 export function sniffCsv(head: string, opts: { truncated?: boolean } = {}): CsvSniff {
@@ -99,6 +99,8 @@ export function sniffCsv(head: string, opts: { truncated?: boolean } = {}): CsvS
   const newline = detectNewline(text);
   const delimiter = chooseDelimiter(text, newline);
   const [headerRow, ...rows] = readRows(text, newline, delimiter);
+  // Lines of nothing but delimiters, quotes or spaces are all skipped as empty: no header at all.
+  if (!headerRow) throw new ParseError("The file has no header row, only empty fields", 1, undefined, "a header row of column names");
   const headers = headerRow.map((h) => h.trim());
   if (headers.every((h) => h !== "" && isNumeric(h))) {
     throw new ParseError("The first row holds numbers, not column names", 1, undefined, "a header row of column names");

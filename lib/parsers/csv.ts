@@ -46,10 +46,12 @@ async function* decode(source: ByteSource): AsyncGenerator<string> {
 async function readHead(it: AsyncIterator<string>): Promise<{ head: string; done: boolean }> {
   let head = "";
   for (;;) {
-    if (head.length >= SNIFF_CHARS && /[\r\n]/.test(head)) return { head, done: false };
-    if (head.length > MAX_LINE_CHARS && !/[\r\n]/.test(head)) {
+    // The first line alone over 1 MB (also when its line break came in the same chunk): the sniffer
+    // looks at 64 KB only and would report "no data rows" instead.
+    if (head.length > MAX_LINE_CHARS && !/[\r\n]/.test(head.slice(0, MAX_LINE_CHARS + 1))) {
       throw new ParseError("This line is longer than 1 MB; this is not a CSV telemetry log", 1, undefined, "lines of at most 1 MB");
     }
+    if (head.length >= SNIFF_CHARS && /[\r\n]/.test(head)) return { head, done: false };
     const r = await it.next();
     if (r.done) return { head, done: true };
     head += r.value;

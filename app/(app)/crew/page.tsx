@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { listMembers, listPendingInvitations } from "@/db/queries/crews";
 import { PageHeader } from "@/components/ui/page-header";
 import { getCrewPageContext } from "@/lib/auth/page-context";
@@ -16,7 +17,13 @@ export default async function CrewPage() {
   const [members, invitations] = await Promise.all([listMembers(crew.crewId), lead ? listPendingInvitations(crew.crewId) : Promise.resolve([])]);
   return (
     <>
-      <PageHeader title={crew.name} lead="Leads manage members, builds and thresholds and sign off debriefs; pilots upload and annotate runs; observers read." />
+      <PageHeader title={crew.name} lead="Leads manage members, builds and thresholds and sign off debriefs; pilots upload and annotate runs; observers read.">
+        {lead && (
+          <Link href="/crew/audit" className="btn-quiet">
+            Audit log
+          </Link>
+        )}
+      </PageHeader>
       <section aria-labelledby="members" className="rounded-lg border border-rule bg-card">
         <h2 id="members" className="border-b border-rule px-4 py-3 text-lg font-semibold">
           Members <span className="figures text-ink-soft">({members.length})</span>

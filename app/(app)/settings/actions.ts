@@ -1,12 +1,11 @@
 "use server";
 
-import { cookies } from "next/headers";
 import { revalidatePath } from "next/cache";
 import { updateProfile } from "@/lib/accounts/profile";
 import type { FormState } from "@/lib/actions/form-state";
 import { runAction } from "@/lib/actions/run-action";
 import { createApiToken, revokeApiToken } from "@/lib/api-tokens";
-import { ACTIVE_CREW_COOKIE } from "@/lib/auth/active-crew";
+import { setActiveCrewCookie } from "@/lib/auth/active-crew";
 import { createCrew } from "@/lib/crews/members";
 import { createApiTokenSchema } from "@/lib/validations/api-token";
 import { profileSchema } from "@/lib/validations/auth";
@@ -24,7 +23,7 @@ export async function updateProfileAction(_prev: FormState, form: FormData): Pro
 export async function createCrewAction(_prev: FormState, form: FormData): Promise<FormState> {
   return runAction(form, createCrewSchema, async (actor, { name }) => {
     const crewId = await createCrew(actor, name);
-    (await cookies()).set(ACTIVE_CREW_COOKIE, String(crewId), { httpOnly: true, sameSite: "lax", path: "/" });
+    await setActiveCrewCookie(crewId);
     revalidatePath("/", "layout");
     return { status: "ok", message: `Crew “${name}” created; you lead it and it is now your active crew.` };
   });

@@ -1,10 +1,9 @@
 "use server";
 
-import { cookies } from "next/headers";
 import { redirect } from "next/navigation";
 import type { FormState } from "@/lib/actions/form-state";
 import { runPublicAction } from "@/lib/actions/run-action";
-import { ACTIVE_CREW_COOKIE } from "@/lib/auth/active-crew";
+import { setActiveCrewCookie } from "@/lib/auth/active-crew";
 import { getActor } from "@/lib/auth/actor";
 import { acceptInvitation } from "@/lib/crews/invitations";
 import { ValidationError } from "@/lib/errors";
@@ -32,7 +31,7 @@ export async function acceptInvitationAction(
     return { status: "ok", message: "Welcome aboard. Signing you in…", result: { email: joined.email } };
   });
   if (joinedCrew) {
-    (await cookies()).set(ACTIVE_CREW_COOKIE, String(joinedCrew), { httpOnly: true, sameSite: "lax", path: "/" });
+    await setActiveCrewCookie(joinedCrew);
     redirect("/dashboard");
   }
   return state;

@@ -84,8 +84,10 @@ async function existingResult(uploadId: number, crewId: number, sha256: string |
 }
 
 function titleFor(fileName: string): string {
-  // The base name only: a name like "../../x.csv" or "C:\\logs\\x.csv" must not carry a path into the title.
-  const base = fileName.split(/[\\/]/).filter(Boolean).pop() ?? "";
+  // A name that is a path ("../../x.csv", "/tmp/x.csv", "C:\\logs\\x.csv") gives its last segment;
+  // any other name is kept as written, slashes and all (they are text, e.g. "</b>" or a URL).
+  const isPath = /^(?:[a-z]:)?[\\/]|(?:^|[\\/])\.{1,2}[\\/]/i.test(fileName);
+  const base = isPath ? (fileName.split(/[\\/]/).filter(Boolean).pop() ?? "") : fileName;
   return base.replace(/\.[a-z0-9]{1,5}$/i, "").slice(0, 160) || "Run";
 }
 

@@ -127,8 +127,7 @@ describe("hostile and broken uploads", () => {
     expect(key).not.toMatch(/["=]/);
     expect(key).not.toContain("..");
     const view = await runView(client, up.runId);
-    // The "/" in the URL counts as a path separator, so the title is the last segment; the file name stays verbatim.
-    expect(view.title).toBe('evil.example","x")');
+    expect(view.title).toBe('=HYPERLINK("http://evil.example","x")');
     expect(view.upload.fileName).toBe(name);
   });
 

@@ -1,12 +1,12 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { RangeChart } from "@/components/charts/range-chart";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
+import { RangeSection } from "@/components/debrief/range-section";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
 import { SafetyNote } from "@/components/ui/safety-note";
 import { env } from "@/lib/env";
-import { formatDistance, formatSpan } from "@/lib/format/units";
+import { formatSpan } from "@/lib/format/units";
 import { openSharedDebrief } from "@/lib/share/shared-debrief";
 
 // Every load checks the link (expiry, withdrawal) and counts one view: never cached.
@@ -117,32 +117,7 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
         />
       )}
 
-      {ready && (
-        <section className="panel mt-6" aria-labelledby="range-title">
-          <h2 id="range-title" className="text-lg font-semibold">
-            Range: signal against distance
-          </h2>
-          <p className="mt-1 max-w-prose text-sm text-ink-soft">
-            Each dot is a sample with RSSI in dBm and a position. The solid line is the log-distance fit of this run; the dashed line
-            falls 20 dB per decade as in free space. Where the fit meets the threshold (receiver sensitivity plus the fade margin) is
-            the estimate{range?.estimatedRangeM != null ? `: ${formatDistance(range.estimatedRangeM, units)}` : ""}.
-          </p>
-          <div className="mt-3">
-            <RangeChart
-              runId={run.id}
-              version={d.dataVersion}
-              apiBase={apiBase}
-              fit={range?.p0Dbm != null && range.pathLossExponent != null ? { p0Dbm: range.p0Dbm, pathLossExponent: range.pathLossExponent } : null}
-              thresholdDbm={range?.thresholdDbm ?? null}
-              estimatedRangeM={range?.estimatedRangeM ?? null}
-              distanceUnit="m"
-            />
-          </div>
-          <div className="mt-3">
-            <SafetyNote topic="range" />
-          </div>
-        </section>
-      )}
+      {ready && <RangeSection runId={run.id} version={d.dataVersion} apiBase={apiBase} range={range} units={units} />}
 
       <section className="panel mt-6" aria-labelledby="notes-title">
         <h2 id="notes-title" className="text-lg font-semibold">

@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { MoveRunForm } from "@/components/builds/move-run-form";
-import { RangeChart } from "@/components/charts/range-chart";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
+import { RangeSection } from "@/components/debrief/range-section";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { ExportLinks } from "@/components/runs/export-links";
 import { formatBytes } from "@/components/runs/format-bytes";
@@ -19,7 +19,7 @@ import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
 import { env } from "@/lib/env";
 import { NotFoundError } from "@/lib/errors";
-import { formatDistance, formatSpan } from "@/lib/format/units";
+import { formatSpan } from "@/lib/format/units";
 import { loadDebrief, type Debrief } from "@/lib/runs/debrief";
 import { idSchema } from "@/lib/validations/crew";
 import { ColumnMapEditor } from "./column-map-editor";
@@ -168,31 +168,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
         />
       )}
 
-      {ready && (
-        <section className="panel mt-6" aria-labelledby="range-title">
-          <h2 id="range-title" className="text-lg font-semibold">
-            Range: signal against distance
-          </h2>
-          <p className="mt-1 max-w-prose text-sm text-ink-soft">
-            Each dot is a sample with RSSI in dBm and a position. The solid line is the log-distance fit of this run; the dashed line
-            falls 20 dB per decade as in free space. Where the fit meets the threshold (receiver sensitivity plus the fade margin) is
-            the estimate{range?.estimatedRangeM != null ? `: ${formatDistance(range.estimatedRangeM, units)}` : ""}.
-          </p>
-          <div className="mt-3">
-            <RangeChart
-              runId={run.id}
-              version={d.dataVersion}
-              fit={range?.p0Dbm != null && range.pathLossExponent != null ? { p0Dbm: range.p0Dbm, pathLossExponent: range.pathLossExponent } : null}
-              thresholdDbm={range?.thresholdDbm ?? null}
-              estimatedRangeM={range?.estimatedRangeM ?? null}
-              distanceUnit={units === "imperial" ? "ft" : "m"}
-            />
-          </div>
-          <div className="mt-3">
-            <SafetyNote topic="range" />
-          </div>
-        </section>
-      )}
+      {ready && <RangeSection runId={run.id} version={d.dataVersion} range={range} units={units} />}
 
       <section className="panel mt-6" aria-labelledby="notes-title">
         <h2 id="notes-title" className="text-lg font-semibold">

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
 import { RangeSection } from "@/components/debrief/range-section";
+import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
 import { SafetyNote } from "@/components/ui/safety-note";
@@ -19,13 +20,8 @@ export const metadata: Metadata = {
   referrer: "no-referrer",
 };
 
-const utc = (d: Date) => d.toISOString().replace("T", " ").slice(0, 16) + " UTC";
+const utc = utcMinute;
 
-const verdictLook = {
-  act: { title: "Act before the next run", cls: "border-act", mark: "■" },
-  watch: { title: "Watch", cls: "border-watch", mark: "▲" },
-  clear: { title: "Clear", cls: "border-clear", mark: "●" },
-} as const;
 
 /** A debrief for someone without an account: read-only, and only this run. */
 export default async function SharedDebriefPage({ params }: { params: Promise<{ token: string }> }) {
@@ -35,10 +31,9 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
   const { run } = d;
   const units = "metric" as const;
   const apiBase = `/api/share/${encodeURIComponent(token)}`;
-  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: keyof typeof verdictLook; reasons: string[] }; fieldsPresent?: string[] };
+  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: VerdictLevel; reasons: string[] }; fieldsPresent?: string[] };
   const ready = run.status === "ready";
   const verdict = ready ? (summary.verdict ?? null) : null;
-  const look = verdict ? verdictLook[verdict.level] : null;
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
   const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
   const range = summary.range;
@@ -66,36 +61,7 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
         </p>
       )}
 
-      {verdict && look && (
-        <section aria-label="Verdict" data-testid="verdict" className={`mb-4 flex flex-col gap-3 rounded-lg border-l-8 bg-card p-4 sm:flex-row sm:items-start sm:justify-between ${look.cls}`}>
-          <div>
-            <p className="text-lg font-bold">
-              <span aria-hidden="true">{look.mark} </span>
-              {look.title}
-            </p>
-            {verdict.reasons.length > 0 ? (
-              <ul className="mt-1 list-disc pl-5 text-sm">
-                {verdict.reasons.map((r) => (
-                  <li key={r}>{r}</li>
-                ))}
-              </ul>
-            ) : (
-              <p className="mt-1 text-sm">No rule fired: the link held, the failsafe was not needed, the route and battery stayed in limits.</p>
-            )}
-          </div>
-          <div className="text-sm sm:text-right" data-testid="sign-off">
-            {d.signOff ? (
-              <p>
-                <span className="font-semibold">Signed off</span> by {d.signOff.by}
-                <br />
-                <span className="figures text-ink-soft">{utc(d.signOff.at)}</span>
-              </p>
-            ) : (
-              <p className="text-ink-soft">Not signed off yet.</p>
-            )}
-          </div>
-        </section>
-      )}
+      {verdict && <VerdictStrip verdict={verdict} signOff={d.signOff} />}
 
       {ready && <SummaryFigures summary={summary} units={units} />}
 

@@ -4,6 +4,7 @@ import { notFound } from "next/navigation";
 import { MoveRunForm } from "@/components/builds/move-run-form";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
 import { RangeSection } from "@/components/debrief/range-section";
+import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { ExportLinks } from "@/components/runs/export-links";
 import { formatBytes } from "@/components/runs/format-bytes";
@@ -54,21 +55,15 @@ function carries(summary: Record<string, unknown> | null): string {
   return words.length ? words.join(", ") : "—";
 }
 
-const utc = (d: Date) => d.toISOString().replace("T", " ").slice(0, 16) + " UTC";
+const utc = utcMinute;
 
-const verdictLook = {
-  act: { title: "Act before the next run", cls: "border-act", mark: "■" },
-  watch: { title: "Watch", cls: "border-watch", mark: "▲" },
-  clear: { title: "Clear", cls: "border-clear", mark: "●" },
-} as const;
 
 export default async function DebriefPage({ params }: { params: Promise<{ runId: string }> }) {
   const d = await load((await params).runId);
   const { run, units } = d;
-  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: keyof typeof verdictLook; reasons: string[] }; fieldsPresent?: string[] };
+  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: VerdictLevel; reasons: string[] }; fieldsPresent?: string[] };
   const ready = run.status === "ready";
   const verdict = ready ? (summary.verdict ?? null) : null;
-  const look = verdict ? verdictLook[verdict.level] : null;
   const mayNote = can(d.role as never, "writeNote");
   const maySign = can(d.role as never, "signOff");
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
@@ -103,40 +98,14 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
 
       <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} />
 
-      {verdict && look && (
-        <section aria-label="Verdict" data-testid="verdict" className={`mb-4 flex flex-col gap-3 rounded-lg border-l-8 bg-card p-4 sm:flex-row sm:items-start sm:justify-between ${look.cls}`}>
-          <div>
-            <p className="text-lg font-bold">
-              <span aria-hidden="true">{look.mark} </span>
-              {look.title}
-            </p>
-            {verdict.reasons.length > 0 ? (
-              <ul className="mt-1 list-disc pl-5 text-sm">
-                {verdict.reasons.map((r) => (
-                  <li key={r}>{r}</li>
-                ))}
-              </ul>
-            ) : (
-              <p className="mt-1 text-sm">No rule fired: the link held, the failsafe was not needed, the route and battery stayed in limits.</p>
-            )}
-          </div>
-          <div className="text-sm sm:text-right" data-testid="sign-off">
-            {d.signOff ? (
-              <p>
-                <span className="font-semibold">Signed off</span> by {d.signOff.by}
-                <br />
-                <span className="figures text-ink-soft">{utc(d.signOff.at)}</span>
-              </p>
-            ) : (
-              <p className="text-ink-soft">Not signed off yet{maySign ? "" : " — a lead signs debriefs off"}.</p>
-            )}
-            {maySign && (
-              <div className="mt-2 sm:flex sm:justify-end">
-                <SignOffForm runId={run.id} signed={Boolean(d.signOff)} />
-              </div>
-            )}
-          </div>
-        </section>
+      {verdict && (
+        <VerdictStrip verdict={verdict} signOff={d.signOff} notSignedHint={maySign ? "" : " — a lead signs debriefs off"}>
+          {maySign && (
+            <div className="mt-2 sm:flex sm:justify-end">
+              <SignOffForm runId={run.id} signed={Boolean(d.signOff)} />
+            </div>
+          )}
+        </VerdictStrip>
       )}
 
       {run.status === "failed" && run.error && (

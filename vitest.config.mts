@@ -31,6 +31,20 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      {
+        extends: true,
+        test: {
+          // Load and fault tests: each file runs its own stack (tests/faults/harness.ts) and stops
+          // parts of it, so they run after the other projects, one file at a time.
+          name: "faults",
+          include: ["tests/faults/**/*.test.ts"],
+          setupFiles: ["tests/faults/setup-env.ts"],
+          environment: "node",
+          testTimeout: 20 * 60_000,
+          hookTimeout: 180_000,
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });

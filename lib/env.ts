@@ -28,6 +28,17 @@ const envSchema = z.object({
   MAP_TILE_ATTRIBUTION: z.string().max(300).optional(),
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(8),
   LOGIN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
+  /** "off": this instance serves pages only; `npm run worker` (or another instance) reads the logs and sends the mail. */
+  BACKGROUND_JOBS: z.enum(["on", "off"]).default("on"),
+  /** Logs read at once by one instance; 2 suits a 2-core machine and keeps pages quick during bursts. */
+  INGEST_PARALLEL: z.coerce.number().int().min(1).max(16).default(2),
+  /** A claimed job whose heartbeat is older than this is taken to have lost its process. */
+  INGEST_STALE_AFTER_S: z.coerce.number().int().min(2).max(3600).default(30),
+  /** Claims of one job before it is failed (a log that kills its reader each time must stop somewhere). */
+  INGEST_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(3),
+  /** First retry delay after a mail could not be handed to SMTP; doubles on each failure. */
+  MAIL_RETRY_BASE_S: z.coerce.number().min(0.2).max(3600).default(30),
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(10),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -63,3 +63,10 @@ export class ServiceUnavailableError extends HttpError {
     super(503, "unavailable", message);
   }
 }
+
+/** The object store refused or dropped the connection (lib/storage/s3.ts). */
+export class StorageUnavailableError extends ServiceUnavailableError {
+  constructor(readonly cause?: unknown) {
+    super("File storage is not answering; nothing is lost, try again shortly");
+  }
+}

@@ -1,51 +1,19 @@
 /**
  * `npm test`: throwaway MariaDB / S3 / SMTP on test ports, migrations, unit tests, a production
- * build served on its own port, then integration and browser tests against it.
+ * build served on its own port, then integration and browser tests against it, then the load and
+ * fault tests (tests/faults) on a stack of their own, in their short form.
  * Extra arguments go to vitest (e.g. `npm test -- tests/unit/auth`).
  */
-import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
-import fs from "node:fs";
-import path from "node:path";
 import { buildApp, startApp, type AppServer } from "./lib/app-server";
 import { ensureChromium } from "./lib/chromium";
 import { profile, projectRoot } from "./lib/profiles";
 import { onShutdown, startStack, type Stack } from "./lib/stack";
 import { log } from "./lib/util";
+import { clearFigures, printFigures, vitest, type VitestJson } from "./lib/vitest-run";
 
 let stack: Stack | undefined;
 let app: AppServer | undefined;
-
-interface VitestJson {
-  numPassedTests: number;
-  numFailedTests: number;
-  numPendingTests: number;
-  numTodoTests: number;
-  success: boolean;
-}
-
-const reportDir = path.join(projectRoot, ".data", "test-reports");
-
-/** Runs vitest as a child without blocking: S3 and SMTP are served from this very process. */
-async function vitest(projects: string[], env: Record<string, string>, extra: string[]): Promise<VitestJson> {
-  const name = projects.join("+");
-  const out = path.join(reportDir, `${name}.json`);
-  fs.mkdirSync(reportDir, { recursive: true });
-  log("sortie", `vitest: ${projects.join(", ")}`);
-  fs.rmSync(out, { force: true });
-  const child = spawn(
-    path.join(projectRoot, "node_modules", ".bin", "vitest"),
-    ["run", ...projects.flatMap((p) => ["--project", p]), "--reporter=default", "--reporter=json", `--outputFile.json=${out}`, "--passWithNoTests", ...extra],
-    { cwd: projectRoot, stdio: "inherit", env: { ...process.env, ...env } },
-  );
-  const status = await new Promise<number>((resolve) => child.on("exit", (code) => resolve(code ?? 1)));
-  if (!fs.existsSync(out)) {
-    return { numPassedTests: 0, numFailedTests: 1, numPendingTests: 0, numTodoTests: 0, success: false };
-  }
-  const report = JSON.parse(fs.readFileSync(out, "utf8")) as VitestJson;
-  if (status !== 0 && report.success) report.success = false;
-  return report;
-}
 
 async function main(): Promise<number> {
   const t0 = Date.now();
@@ -91,6 +59,11 @@ async function main(): Promise<number> {
   app = undefined;
   await stack.stop();
   stack = undefined;
+
+  // Load and fault tests bring up (and knock down) their own stack: alone, after the rest.
+  clearFigures();
+  results.push(await vitest(["faults"], { NEXT_TELEMETRY_DISABLED: "1" }, extra));
+  printFigures();
 
   const passed = results.reduce((n, r) => n + r.numPassedTests, 0);
   const failed = results.reduce((n, r) => n + r.numFailedTests, 0);

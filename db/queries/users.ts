@@ -4,7 +4,7 @@ import { users, type User } from "@/db/schema";
 
 export type PublicUser = Pick<User, "id" | "email" | "name" | "units" | "alertEmails">;
 
-const publicColumns = {
+export const publicColumns = {
   id: users.id,
   email: users.email,
   name: users.name,

@@ -8,3 +8,5 @@ export * from "./column-maps";
 export * from "./share-links";
 export * from "./audit";
 export * from "./series";
+export * from "./jobs";
+export * from "./mail";

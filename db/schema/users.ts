@@ -12,10 +12,25 @@ export const users = mysqlTable(
     units: mysqlEnum(["metric", "imperial"]).notNull().default("metric"),
     /** Verdict "act" alerts by e-mail; each user can turn them off. */
     alertEmails: boolean().notNull().default(true),
+    /** Sessions signed in before this time are void (set by a password reset: ends stolen sessions too). */
+    sessionsValidAfter: ms(),
     ...lifecycleDates(),
   },
   (t) => [uniqueIndex("users_email_uq").on(t.email)],
 );
+
+/**
+ * Sessions ended by signing out. Sessions are signed cookies (stateless, so any instance can read
+ * them); this short list makes a copied cookie useless after sign-out. Rows go once the session
+ * would have expired anyway.
+ */
+export const revokedSessions = mysqlTable("revoked_sessions", {
+  /** The session's random id, carried in its signed cookie. */
+  sid: char({ length: 32 }).primaryKey(),
+  userId: ref().notNull().references(() => users.id, { onDelete: "cascade" }),
+  expiresAt: ms().notNull(),
+  createdAt: createdAt(),
+});
 
 export const passwordResets = mysqlTable(
   "password_resets",

@@ -8,7 +8,8 @@ import { hashToken, newToken } from "@/lib/auth/secrets";
 import { env } from "@/lib/env";
 import { ValidationError } from "@/lib/errors";
 import { passwordResetMail } from "@/lib/mail/templates";
-import { sendMail } from "@/lib/mail/transport";
+import { endAllSessions } from "@/lib/auth/sessions";
+import { queueMail } from "@/lib/mail/outbox";
 
 export const RESET_TTL_MS = 60 * 60 * 1000;
 
@@ -23,7 +24,7 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
   const expiresAt = new Date(now.getTime() + RESET_TTL_MS);
   await db().insert(passwordResets).values({ userId: user.id, tokenHash: hashToken(token), expiresAt });
   const url = `${env().APP_URL}/reset/${encodeURIComponent(token)}`;
-  await sendMail(passwordResetMail({ to: user.email, name: user.name, url, expiresAt }));
+  await queueMail(passwordResetMail({ to: user.email, name: user.name, url, expiresAt }), "password-reset");
   await audit({ actorId: user.id, action: "password.reset-requested", targetType: "user", targetId: user.id });
 }
 
@@ -47,6 +48,8 @@ export async function resetPassword(token: string, password: string, now = new D
     const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, row.userId));
     return { email: u.email, userId: row.userId };
   });
+  // A new password ends every session, including any opened with the old one (ASVS V3.3.3).
+  await endAllSessions(result.userId);
   await audit({ actorId: result.userId, action: "password.reset", targetType: "user", targetId: result.userId });
   return { email: result.email };
 }

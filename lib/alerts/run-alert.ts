@@ -19,7 +19,7 @@ import type { RunSummary } from "@/components/debrief/figure-list";
 import { audit } from "@/lib/audit";
 import { env } from "@/lib/env";
 import { runAlertMail } from "@/lib/mail/run-alert-mail";
-import { sendMail } from "@/lib/mail/transport";
+import { queueMail } from "@/lib/mail/outbox";
 
 export const ALERT_ACTION = "run.alert-sent";
 
@@ -108,7 +108,7 @@ export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel 
       settingsUrl: `${appUrl}/settings`,
     });
     try {
-      await sendMail(mail);
+      await queueMail(mail, "run-alert");
       sentTo.push(lead.id);
     } catch (e) {
       failed++;

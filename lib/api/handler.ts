@@ -36,6 +36,7 @@ export function errorResponse(e: unknown): Response {
   if (e instanceof HttpError) {
     const headers: Record<string, string> = {};
     if (e instanceof RateLimitedError) headers["retry-after"] = String(e.retryAfterS);
+    if (e.status === 503) headers["retry-after"] = "5";
     return NextResponse.json({ error: { code: e.code, message: e.message, details: e.details } }, { status: e.status, headers });
   }
   if (isDatabaseDown(e)) {

@@ -8,6 +8,7 @@ import { apiTokens } from "@/db/schema";
 import { UnauthenticatedError } from "@/lib/errors";
 import { authOptions } from "./options";
 import { hashToken } from "./secrets";
+import { userForSession } from "./sessions";
 
 export interface Actor {
   user: PublicUser;
@@ -26,9 +27,10 @@ export async function getActor(): Promise<Actor | null> {
     return actorFromApiToken(m[1]);
   }
   const session = await getServerSession(authOptions());
-  const id = (session?.user as { id?: number } | undefined)?.id;
-  if (typeof id !== "number") return null;
-  const user = await getUserById(id);
+  const claims = session?.user as { id?: number; sid?: string; signedInAt?: number } | undefined;
+  if (typeof claims?.id !== "number") return null;
+  // A signed-out or ended session is refused here, on every request (ASVS V3.3.1, V3.3.3).
+  const user = await userForSession({ uid: claims.id, sid: claims.sid, signedInAt: claims.signedInAt });
   return user ? { user, via: "session" } : null;
 }
 

@@ -1,3 +1,4 @@
+import { randomBytes } from "node:crypto";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { getUserWithSecretByEmail } from "@/db/queries/users";
@@ -6,6 +7,7 @@ import { env } from "@/lib/env";
 import { signInSchema } from "@/lib/validations/auth";
 import { burnPasswordCheck, verifyPassword } from "./password";
 import { clientIp, loginBlocked, recordLoginAttempt } from "./rate-limit";
+import { revokeSession, SESSION_MAX_AGE_S } from "./sessions";
 
 export const SIGN_IN_RATE_LIMITED = "RateLimited";
 
@@ -14,7 +16,7 @@ export function authOptions(): NextAuthOptions {
   const secure = env().APP_URL.startsWith("https://");
   return {
     secret: env().NEXTAUTH_SECRET,
-    session: { strategy: "jwt", maxAge: 14 * 24 * 3600 },
+    session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
     pages: { signIn: "/sign-in", error: "/sign-in" },
     // next-auth's cookies are HttpOnly, SameSite=Lax and path / by default; over https they are
     // also Secure and __Secure- prefixed (ASVS V3.4.1, V3.4.2, V3.4.3, V3.4.5).
@@ -50,12 +52,32 @@ export function authOptions(): NextAuthOptions {
     ],
     callbacks: {
       jwt({ token, user }) {
-        if (user) token.uid = Number(user.id);
+        if (user) {
+          token.uid = Number(user.id);
+          // Fixed at sign-in and kept through refreshes: what sign-out and a password reset void (lib/auth/sessions.ts).
+          token.sid = randomBytes(16).toString("hex");
+          token.signedInAt = Date.now();
+        }
         return token;
       },
       session({ session, token }) {
-        if (session.user && typeof token.uid === "number") (session.user as { id?: number }).id = token.uid;
+        if (session.user && typeof token.uid === "number") {
+          const u = session.user as { id?: number; sid?: string; signedInAt?: number };
+          u.id = token.uid;
+          u.sid = typeof token.sid === "string" ? token.sid : undefined;
+          u.signedInAt = typeof token.signedInAt === "number" ? token.signedInAt : undefined;
+        }
         return session;
+      },
+    },
+    events: {
+      // ASVS V3.3.1: signing out ends the session on the server too, not only in this browser.
+      async signOut({ token }) {
+        const uid = typeof token?.uid === "number" ? token.uid : null;
+        if (uid && typeof token.sid === "string") {
+          await revokeSession(token.sid, uid);
+          await audit({ actorId: uid, action: "sign-out", targetType: "user", targetId: uid });
+        }
       },
     },
   };

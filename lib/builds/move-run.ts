@@ -8,7 +8,7 @@ import { requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/roles";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
-import { ingestBusy, startIngest } from "@/lib/ingest/ingest-queue";
+import { enqueueIngest } from "@/lib/jobs/enqueue";
 
 const BUSY = "This run is being read right now; wait for it to finish";
 
@@ -28,13 +28,12 @@ export async function moveRunToBuild(actor: Actor, runId: number, buildId: numbe
     if (build.retiredAt) throw new ValidationError("That build is retired; bring it back first", { fields: { buildId: ["Choose a build in service"] } });
   }
   if (run.buildId === buildId) return { runId, buildId, status: run.status, requeued: false };
-  if (ingestBusy(runId)) throw new ConflictError(BUSY);
   const [claim] = await db()
     .update(runs)
     .set({ buildId, status: "queued", progress: 0, error: null })
     .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
   if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(BUSY);
   await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.build-changed", targetType: "run", targetId: runId, detail: { from: run.buildId, to: buildId } });
-  startIngest(runId);
+  await enqueueIngest(runId);
   return { runId, buildId, status: "queued" as const, requeued: true };
 }

@@ -11,7 +11,7 @@ import { hashToken, newToken } from "@/lib/auth/secrets";
 import { env } from "@/lib/env";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
 import { invitationMail } from "@/lib/mail/templates";
-import { sendMail } from "@/lib/mail/transport";
+import { queueMail } from "@/lib/mail/outbox";
 
 export const INVITATION_TTL_MS = 7 * 24 * 3600 * 1000;
 
@@ -42,7 +42,7 @@ export async function inviteMember(
     return id;
   });
   const url = `${env().APP_URL}/invite/${encodeURIComponent(token)}`;
-  await sendMail(invitationMail({ to: input.email, crewName: crew.name, role: input.role, invitedByName: actor.user.name, url, expiresAt }));
+  await queueMail(invitationMail({ to: input.email, crewName: crew.name, role: input.role, invitedByName: actor.user.name, url, expiresAt }), "invitation");
   await audit({ crewId, actorId: actor.user.id, action: "member.invited", targetType: "invitation", targetId: invitationId, detail: { email: input.email, role: input.role } });
   return { invitationId, expiresAt };
 }

@@ -4,7 +4,7 @@ import { crews, runs } from "@/db/schema";
 import { audit } from "@/lib/audit";
 import { requireCrewPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
-import { startIngest } from "@/lib/ingest/ingest-queue";
+import { enqueueIngest } from "@/lib/jobs/enqueue";
 import type { ThresholdOverrides } from "@/lib/validations/thresholds";
 
 export async function getCrewThresholds(actor: Actor, crewId: number): Promise<ThresholdOverrides> {
@@ -28,8 +28,8 @@ export async function reanalyseCrewRuns(actor: Actor, crewId: number): Promise<n
   await requireCrewPermission(actor, crewId, "manageThresholds", "Crew");
   const ready = await db().select({ id: runs.id }).from(runs).where(and(eq(runs.crewId, crewId), eq(runs.status, "ready")));
   for (const r of ready) {
-    await db().update(runs).set({ status: "queued", progress: 0 }).where(and(eq(runs.id, r.id), eq(runs.status, "ready")));
-    startIngest(r.id);
+    const [claim] = await db().update(runs).set({ status: "queued", progress: 0 }).where(and(eq(runs.id, r.id), eq(runs.status, "ready")));
+    if ((claim as unknown as { affectedRows: number }).affectedRows) await enqueueIngest(r.id);
   }
   await audit({ crewId, actorId: actor.user.id, action: "crew.runs-reanalysed", targetType: "crew", targetId: crewId, detail: { runs: ready.length } });
   return ready.length;

@@ -5,6 +5,7 @@ import { db, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
 import { events, runs, type RunWarning } from "@/db/schema";
 import { alertAfterAnalysis } from "@/lib/alerts/run-alert";
+import { isDatabaseDown } from "@/lib/api/database-down";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { SeriesCollector } from "@/lib/analysis/series-collector";
 import type { AnalysisEvent } from "@/lib/analysis/types";
@@ -12,6 +13,7 @@ import { columnMapSchema } from "@/lib/parsers/column-map";
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { parseLog } from "@/lib/parsers/parse-log";
 import { ParseError, type SampleBatch } from "@/lib/parsers/types";
+import { ServiceUnavailableError } from "@/lib/errors";
 import { seriesBlobs } from "@/lib/series/levels";
 import { deleteSeriesLevels, writeSeriesLevels } from "@/lib/series/store";
 import { readObject } from "@/lib/storage/objects";
@@ -44,17 +46,42 @@ export function describeFailure(e: unknown): string {
   if (e instanceof ParseError) return e.describe();
   const msg = (e as Error)?.message ?? String(e);
   console.error("[ingest] unexpected failure", e);
-  if (/ECONNREFUSED|ETIMEDOUT|PROTOCOL_CONNECTION_LOST/.test(msg)) return "A storage service stopped answering while the log was read; re-parse it to try again";
+  if (isPassingFault(e)) return "A storage service stopped answering while the log was read; re-parse it to try again";
   return "The log could not be processed because of an error on our side; re-parse it to try again";
+}
+
+export type IngestOutcome =
+  | { kind: "ready" }
+  | { kind: "failed"; error: string }
+  /** A passing fault (storage or database not answering): the run waits, queued, for another attempt. */
+  | { kind: "retry"; error: string }
+  /** This process no longer holds the job (another instance took it over): nothing was committed. */
+  | { kind: "lost" };
+
+export interface IngestOptions {
+  /** False on the job's last attempt: a passing fault then fails the run instead of waiting. */
+  mayRetry?: boolean;
+  /** Checked inside the transaction just before commit (lib/jobs/ingest-jobs.ts). */
+  stillHolds?: (conn: PoolConnection) => Promise<boolean>;
+}
+
+class LostClaim extends Error {}
+
+/** Connection-level failures of S3 or MariaDB, worth another attempt later. */
+function isPassingFault(e: unknown): boolean {
+  if (e instanceof ParseError) return false;
+  if (e instanceof ServiceUnavailableError || isDatabaseDown(e)) return true;
+  const msg = `${(e as Error)?.name ?? ""} ${(e as Error)?.message ?? ""} ${(e as { code?: string })?.code ?? ""}`;
+  return /ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|socket hang up|TimeoutError|ServiceUnavailable|SlowDown|InternalError/.test(msg);
 }
 
 /**
  * Streams one run's original object through its parser into the samples table in a single
  * transaction; a failure part-way rolls back, so a run never has partial samples.
  */
-export async function ingestRun(runId: number, attempt = 1): Promise<void> {
+export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt = 1): Promise<IngestOutcome> {
   const row = await getRunWithUpload(runId);
-  if (!row) return;
+  if (!row) return { kind: "failed", error: "run not found" };
   const { run, upload } = row;
 
   let bytes = 0;
@@ -141,27 +168,38 @@ export async function ingestRun(runId: number, attempt = 1): Promise<void> {
         error: null,
       })
       .where(eq(runs.id, runId));
+    if (opts.stillHolds && !(await opts.stillHolds(conn))) throw new LostClaim();
     await conn.commit();
     // After the commit, never awaited: mail must not hold up or fail the ingest.
     alertAfterAnalysis(runId, run.verdict ?? null);
+    return { kind: "ready" };
   } catch (e) {
     await load?.abort();
     await conn?.rollback().catch(() => {});
     await progressWrite;
+    if (e instanceof LostClaim) return { kind: "lost" };
     if ((e as { code?: string }).code === "ER_LOCK_DEADLOCK" && attempt < 3) {
       conn?.release();
       conn = null;
-      return ingestRun(runId, attempt + 1);
+      return ingestRun(runId, opts, attempt + 1);
+    }
+    if (opts.mayRetry && isPassingFault(e)) {
+      console.error(`[ingest] run ${runId}: passing fault, will retry: ${(e as Error)?.message}`);
+      const error = "A storage service stopped answering while the log was read; trying again shortly";
+      await db().update(runs).set({ status: "queued", progress: 0, error }).where(eq(runs.id, runId)).catch(() => {});
+      return { kind: "retry", error };
     }
     // A failed run has no samples, also when a re-parse fails after an earlier good parse.
     await conn?.query("DELETE FROM samples WHERE run_id = ?", [runId]).catch(() => {});
     await conn?.query("DELETE FROM events WHERE run_id = ?", [runId]).catch(() => {});
     if (conn) await deleteSeriesLevels(conn, runId).catch(() => {});
+    const error = describeFailure(e);
     await db()
       .update(runs)
-      .set({ status: "failed", progress: 0, error: describeFailure(e), sampleCount: 0 })
+      .set({ status: "failed", progress: 0, error, sampleCount: 0 })
       .where(eq(runs.id, runId))
       .catch(() => {});
+    return { kind: "failed", error };
   } finally {
     conn?.release();
   }

@@ -12,7 +12,7 @@ import { sniffCsv } from "@/lib/parsers/csv-sniff";
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { ParseError } from "@/lib/parsers/types";
 import { presignGet, readObject } from "@/lib/storage/objects";
-import { ingestBusy, startIngest } from "./ingest-queue";
+import { enqueueIngest } from "@/lib/jobs/enqueue";
 import { resolveColumnMap } from "./resolve-column-map";
 
 /** The run as the API and the status page show it. */
@@ -59,7 +59,6 @@ async function requireRunEdit(actor: Actor, runId: number) {
 export async function reparseRun(actor: Actor, runId: number, input: { columnMapId?: number; columnMap?: ColumnMap }) {
   const run = await requireRunEdit(actor, runId);
   const busy = "This run is being read right now; wait for it to finish";
-  if (ingestBusy(runId)) throw new ConflictError(busy);
   const columnMap = await resolveColumnMap(actor, run.crewId, input);
   // Conditional, so two re-parse requests cannot both queue the run.
   const [claim] = await db()
@@ -68,7 +67,7 @@ export async function reparseRun(actor: Actor, runId: number, input: { columnMap
     .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
   if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(busy);
   await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.reparsed", targetType: "run", targetId: runId });
-  startIngest(runId);
+  await enqueueIngest(runId);
   return { runId, status: "queued" as const };
 }
 

@@ -15,7 +15,7 @@ import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@
 import { completeMultipart, objectSize, presignPut, readObject, startMultipart } from "@/lib/storage/objects";
 import type { ColumnMap } from "@/lib/parsers/column-map";
 import type { UploadCreate } from "@/lib/validations/upload";
-import { startIngest } from "./ingest-queue";
+import { enqueueIngest } from "@/lib/jobs/enqueue";
 import { uploadObjectKey } from "./object-key";
 import { resolveColumnMap } from "./resolve-column-map";
 
@@ -151,6 +151,6 @@ export async function completeUpload(
     return (await existingResult(upload.id, upload.crewId, sha256))!;
   }
   await audit({ crewId: upload.crewId, actorId: actor.user.id, action: "run.uploaded", targetType: "run", targetId: runId, detail: { fileName: upload.fileName, size } });
-  startIngest(runId);
+  await enqueueIngest(runId);
   return { runId, status: "queued", duplicate: false };
 }

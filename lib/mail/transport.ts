@@ -16,6 +16,9 @@ function transporter(): Transporter {
       ignoreTLS: local,
       auth: url.username ? { user: decodeURIComponent(url.username), pass: decodeURIComponent(url.password) } : undefined,
       connectionTimeout: 10_000,
+      greetingTimeout: 10_000,
+      // A stalled server must not hold an outbox lease for long (lib/mail/outbox.ts).
+      socketTimeout: 60_000,
     });
   }
   return g.sortieMailer;
@@ -28,6 +31,7 @@ export interface Mail {
   html: string;
 }
 
-export async function sendMail(mail: Mail): Promise<void> {
+/** Hands one message to SMTP now. Product code queues through lib/mail/outbox.ts instead. */
+export async function deliverMail(mail: Mail): Promise<void> {
   await transporter().sendMail({ from: env().MAIL_FROM, ...mail });
 }

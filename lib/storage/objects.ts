@@ -10,7 +10,7 @@ import {
   UploadPartCommand,
 } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
-import { bucket, s3, s3ForBrowser } from "./s3";
+import { bucket, s3ForBrowser, storageCall } from "./s3";
 
 /** Presigned URLs are short-lived and bound to one key (and, for PUT, its content type). */
 export const PRESIGN_TTL_S = 15 * 60;
@@ -29,7 +29,7 @@ export function presignGet(key: string, downloadName: string): Promise<string> {
 }
 
 export async function startMultipart(key: string, contentType: string, parts: number): Promise<{ uploadId: string; urls: string[] }> {
-  const { UploadId } = await s3().send(new CreateMultipartUploadCommand({ Bucket: bucket(), Key: key, ContentType: contentType }));
+  const { UploadId } = await storageCall((c) => c.send(new CreateMultipartUploadCommand({ Bucket: bucket(), Key: key, ContentType: contentType })));
   const urls = await Promise.all(
     Array.from({ length: parts }, (_, i) =>
       getSignedUrl(s3ForBrowser(), new UploadPartCommand({ Bucket: bucket(), Key: key, UploadId, PartNumber: i + 1 }), { expiresIn: 6 * 3600 }),
@@ -39,24 +39,24 @@ export async function startMultipart(key: string, contentType: string, parts: nu
 }
 
 export async function completeMultipart(key: string, uploadId: string, etags: string[]): Promise<void> {
-  await s3().send(
+  await storageCall((c) => c.send(
     new CompleteMultipartUploadCommand({
       Bucket: bucket(),
       Key: key,
       UploadId: uploadId,
       MultipartUpload: { Parts: etags.map((ETag, i) => ({ ETag, PartNumber: i + 1 })) },
     }),
-  );
+  ));
 }
 
 export async function abortMultipart(key: string, uploadId: string): Promise<void> {
-  await s3().send(new AbortMultipartUploadCommand({ Bucket: bucket(), Key: key, UploadId: uploadId })).catch(() => {});
+  await storageCall((c) => c.send(new AbortMultipartUploadCommand({ Bucket: bucket(), Key: key, UploadId: uploadId }))).catch(() => {});
 }
 
 /** Size of the stored object, or null when it is not there (yet). */
 export async function objectSize(key: string): Promise<number | null> {
   try {
-    const h = await s3().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
+    const h = await storageCall((c) => c.send(new HeadObjectCommand({ Bucket: bucket(), Key: key })));
     return h.ContentLength ?? 0;
   } catch (e) {
     const status = (e as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode;
@@ -67,16 +67,16 @@ export async function objectSize(key: string): Promise<number | null> {
 
 /** Streams an object's bytes (optionally a byte range, inclusive). */
 export async function readObject(key: string, range?: { start: number; end: number }): Promise<Readable> {
-  const r = await s3().send(
+  const r = await storageCall((c) => c.send(
     new GetObjectCommand({ Bucket: bucket(), Key: key, Range: range ? `bytes=${range.start}-${range.end}` : undefined }),
-  );
+  ));
   return r.Body as Readable;
 }
 
 export async function putObject(key: string, body: Buffer | string, contentType: string): Promise<void> {
-  await s3().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType }));
+  await storageCall((c) => c.send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType })));
 }
 
 export async function deleteObject(key: string): Promise<void> {
-  await s3().send(new DeleteObjectCommand({ Bucket: bucket(), Key: key }));
+  await storageCall((c) => c.send(new DeleteObjectCommand({ Bucket: bucket(), Key: key })));
 }

@@ -1,5 +1,7 @@
 import { HeadBucketCommand, S3Client } from "@aws-sdk/client-s3";
+import { isDatabaseDown as isConnectionFault } from "@/lib/api/database-down";
 import { env } from "@/lib/env";
+import { StorageUnavailableError } from "@/lib/errors";
 
 const g = globalThis as unknown as { sortieS3?: S3Client; sortieS3Public?: S3Client };
 
@@ -29,13 +31,26 @@ export function s3ForBrowser(): S3Client {
   return (g.sortieS3Public ??= makeClient(e.S3_PUBLIC_ENDPOINT));
 }
 
+/**
+ * Runs one call on the object store; a store that is down becomes a 503 with a plain message
+ * (after the SDK's own retries), never a stack trace or a "database" error.
+ */
+export async function storageCall<T>(call: (client: S3Client) => Promise<T>): Promise<T> {
+  try {
+    return await call(s3());
+  } catch (e) {
+    if (isConnectionFault(e) || (e as Error)?.name === "TimeoutError") throw new StorageUnavailableError(e);
+    throw e;
+  }
+}
+
 export function bucket(): string {
   return env().S3_BUCKET;
 }
 
 export async function objectStoreReachable(): Promise<boolean> {
   try {
-    await s3().send(new HeadBucketCommand({ Bucket: bucket() }));
+    await storageCall((c) => c.send(new HeadBucketCommand({ Bucket: bucket() })));
     return true;
   } catch {
     return false;

@@ -1,8 +1,11 @@
 import path from "node:path";
 
-/** Port and folder layout for one set of local services. `dev` serves `npm start`, `test` serves `npm test`. */
+/**
+ * Port and folder layout for one set of local services. `dev` serves `npm start`, `test` serves
+ * `npm test`, `faults` the load and fault tests (tests/faults), which stop and start their own.
+ */
 export interface ServiceProfile {
-  name: "dev" | "test";
+  name: "dev" | "test" | "faults";
   dataDir: string;
   dbPort: number;
   s3Port: number;
@@ -27,7 +30,7 @@ function port(name: string, fallback: number): number {
   return n;
 }
 
-export function profile(name: "dev" | "test"): ServiceProfile {
+export function profile(name: ServiceProfile["name"]): ServiceProfile {
   if (name === "dev") {
     return {
       name,
@@ -42,6 +45,23 @@ export function profile(name: "dev" | "test"): ServiceProfile {
       dbPassword: "sortie-local",
       bucket: "sortie-logs",
       throwaway: false,
+    };
+  }
+  if (name === "faults") {
+    return {
+      name,
+      dataDir: path.join(root, ".data", "faults"),
+      dbPort: port("SORTIE_FAULTS_DB_PORT", 3327),
+      s3Port: port("SORTIE_FAULTS_S3_PORT", 4589),
+      smtpPort: port("SORTIE_FAULTS_SMTP_PORT", 1045),
+      inboxPort: port("SORTIE_FAULTS_INBOX_PORT", 1100),
+      // A second app instance listens on appPort + 1.
+      appPort: port("SORTIE_FAULTS_APP_PORT", 3200),
+      dbName: "sortie_faults",
+      dbUser: "sortie",
+      dbPassword: "sortie-faults",
+      bucket: "sortie-faults-logs",
+      throwaway: true,
     };
   }
   return {

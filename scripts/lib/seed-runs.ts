@@ -11,7 +11,8 @@ import { getUserWithSecretByEmail } from "@/db/queries/users";
 import { builds, crews, routePlans, uploads } from "@/db/schema";
 import { alertsIdle } from "@/lib/alerts/run-alert";
 import type { Actor } from "@/lib/auth/actor";
-import { ingestIdle } from "@/lib/ingest/ingest-queue";
+import { drainIngestHere } from "@/lib/jobs/worker";
+import { drainOutbox } from "@/lib/mail/outbox";
 import { completeUpload, createUpload } from "@/lib/ingest/uploads";
 import { demoLogs } from "../simulator/demo-runs";
 
@@ -45,8 +46,10 @@ export async function seedDemoRuns(): Promise<{ added: number; skipped: number }
     await completeUpload(actor, created.uploadId, {});
     added++;
   }
-  await ingestIdle();
+  // This process reads the logs itself: the app is not serving yet.
+  await drainIngestHere();
   // An "act" demo run mails the demo lead; let that finish before the caller closes the database.
   await alertsIdle();
+  await drainOutbox();
   return { added, skipped };
 }

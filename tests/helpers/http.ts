@@ -3,7 +3,18 @@ export const appUrl = process.env.SORTIE_TEST_APP_URL ?? "http://localhost:3100"
 
 export class Client {
   private cookies = new Map<string, string>();
-  constructor(private bearer?: string) {}
+  /** `base` points the client at another app instance (tests/faults run two). */
+  constructor(
+    private bearer?: string,
+    readonly base: string = appUrl,
+  ) {}
+
+  /** A client for another instance carrying this one's cookies: the same browser behind a balancer. */
+  withBase(base: string): Client {
+    const other = new Client(this.bearer, base);
+    for (const [k, v] of this.cookies) other.cookies.set(k, v);
+    return other;
+  }
 
   private cookieHeader(): string | undefined {
     if (this.cookies.size === 0) return undefined;
@@ -20,7 +31,7 @@ export class Client {
       headers.set("content-type", "application/json");
       body = JSON.stringify(init.json);
     }
-    const res = await fetch(new URL(path, appUrl), { ...init, headers, body, redirect: "manual" });
+    const res = await fetch(new URL(path, this.base), { ...init, headers, body, redirect: "manual" });
     for (const c of res.headers.getSetCookie()) {
       const [pair] = c.split(";");
       const i = pair.indexOf("=");
@@ -46,10 +57,10 @@ export class Client {
     const res = await this.request("/api/auth/callback/credentials", {
       method: "POST",
       headers: { "content-type": "application/x-www-form-urlencoded" },
-      body: new URLSearchParams({ csrfToken: csrf.csrfToken, email, password, json: "true", callbackUrl: `${appUrl}/dashboard` }).toString(),
+      body: new URLSearchParams({ csrfToken: csrf.csrfToken, email, password, json: "true", callbackUrl: `${this.base}/dashboard` }).toString(),
     });
     const body = (await res.json().catch(() => ({}))) as { url?: string };
-    const error = body.url ? new URL(body.url, appUrl).searchParams.get("error") : "no-url";
+    const error = body.url ? new URL(body.url, this.base).searchParams.get("error") : "no-url";
     if (error) return error;
     return [...this.cookies.keys()].some((k) => k.includes("session-token")) ? null : "no-session-cookie";
   }

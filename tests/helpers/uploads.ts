@@ -46,15 +46,15 @@ export interface RunJson {
   columnMap: { columns: { header: string; field: string; unit?: string }[] } | null;
 }
 
-/** Polls the run until it is ready or failed (bounded: 25 s). */
-export async function settledRun(client: Client, runId: number): Promise<RunJson> {
-  const deadline = Date.now() + 25_000;
+/** Polls the run until it is ready or failed (bounded: 25 s unless told). */
+export async function settledRun(client: Client, runId: number, timeoutMs = 25_000): Promise<RunJson> {
+  const deadline = Date.now() + timeoutMs;
   for (;;) {
     const res = await client.get(`/api/runs/${runId}`);
     expect(res.status).toBe(200);
     const { run } = (await res.json()) as { run: RunJson };
     if (run.status === "ready" || run.status === "failed") return run;
-    if (Date.now() > deadline) throw new Error(`run ${runId} still ${run.status} after 25 s`);
+    if (Date.now() > deadline) throw new Error(`run ${runId} still ${run.status} after ${timeoutMs / 1000} s`);
     await new Promise((r) => setTimeout(r, 250));
   }
 }

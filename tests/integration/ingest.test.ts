@@ -233,19 +233,45 @@ describe("multipart upload", () => {
   });
 });
 
-describe("recoverStaleRuns", () => {
-  it("marks runs left queued or parsing by a restart as failed with a re-parse hint", async () => {
-    const lead = await newLead("restart");
+describe("durable ingest queue (a reader that died)", () => {
+  // The claim/heartbeat/sweep scheme is common practice for database-backed job queues; the
+  // app server's worker sweeps every 2 s and treats a heartbeat older than INGEST_STALE_AFTER_S as dead.
+  it("queues a job whose holder stopped sending heartbeats again, and the run becomes ready", async () => {
+    const lead = await newLead("dead-reader");
     const c = new Client();
     expect(await c.signIn(lead.email, testPassword)).toBeNull();
-    const up = await uploadLog(c, "restart.csv", csv.replace("HOLD", "HOLD2"));
+    const up = await uploadLog(c, "dead-reader.csv", csv.replace("HOLD", "HOLD3"));
+    const first = await settledRun(c, up.runId);
+    expect(first.status).toBe("ready");
+    // As a process that claimed the job and then died would leave it (its transaction rolled back).
+    await db().execute(sql`UPDATE runs SET status = 'parsing', progress = 0.4 WHERE id = ${up.runId}`);
+    await db().execute(
+      sql`UPDATE ingest_jobs SET state = 'running', attempts = 1, claimed_by = 'gone:1:dead', heartbeat_at = NOW(3) - INTERVAL 1 HOUR WHERE run_id = ${up.runId}`,
+    );
+    const run = await settledRun(c, up.runId);
+    expect(run.status).toBe("ready");
+    expect(run.sampleCount).toBe(first.sampleCount);
+    const [rows] = await db().execute(sql`SELECT state, attempts, claimed_by FROM ingest_jobs WHERE run_id = ${up.runId}`);
+    const job = (rows as unknown as { state: string; attempts: number; claimed_by: string | null }[])[0];
+    expect(job.state).toBe("done");
+    expect(job.attempts).toBe(2);
+    expect(job.claimed_by).not.toBe("gone:1:dead");
+  });
+
+  it("fails the run with a re-parse hint once the job has used its attempts", async () => {
+    const lead = await newLead("dead-thrice");
+    const c = new Client();
+    expect(await c.signIn(lead.email, testPassword)).toBeNull();
+    const up = await uploadLog(c, "dead-thrice.csv", csv.replace("HOLD", "HOLD4"));
     await settledRun(c, up.runId);
     await db().execute(sql`UPDATE runs SET status = 'parsing' WHERE id = ${up.runId}`);
-    const { recoverStaleRuns } = await import("@/lib/ingest/recover-stale-runs");
-    expect(await recoverStaleRuns(lead.crewId)).toBe(1);
+    await db().execute(
+      sql`UPDATE ingest_jobs SET state = 'running', attempts = 3, claimed_by = 'gone:2:dead', heartbeat_at = NOW(3) - INTERVAL 1 HOUR WHERE run_id = ${up.runId}`,
+    );
     const run = await settledRun(c, up.runId);
     expect(run.status).toBe("failed");
-    expect(run.error).toMatch(/restarted/);
+    expect(run.error).toMatch(/stopped 3 times.*re-parse/);
+    expect(run.sampleCount).toBe(0);
     expect((await c.post(`/api/runs/${up.runId}/reparse`, {})).status).toBe(200);
     expect((await settledRun(c, up.runId)).status).toBe("ready");
   });

@@ -96,7 +96,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
         </div>
       </header>
 
-      <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} />
+      <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} error={run.error} />
 
       {verdict && (
         <VerdictStrip verdict={verdict} signOff={d.signOff} notSignedHint={maySign ? "" : " — a lead signs debriefs off"}>

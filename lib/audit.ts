@@ -1,4 +1,4 @@
-import { db } from "@/db/client";
+import { db, type Database } from "@/db/client";
 import { auditLog } from "@/db/schema";
 
 export interface AuditInput {
@@ -12,9 +12,9 @@ export interface AuditInput {
 }
 
 /** Appends one audit entry. Never throws: a failed audit write must not undo the action it records. */
-export async function audit(entry: AuditInput): Promise<void> {
+export async function audit(entry: AuditInput, dbx: Database = db()): Promise<void> {
   try {
-    await db().insert(auditLog).values({
+    await dbx.insert(auditLog).values({
       crewId: entry.crewId ?? null,
       actorId: entry.actorId ?? null,
       action: entry.action,

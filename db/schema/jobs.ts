@@ -19,9 +19,12 @@ export const ingestJobs = mysqlTable(
     state: mysqlEnum(jobStates).notNull().default("queued"),
     /** Claims since the job was last queued; a log that kills its reader every time stops at the limit. */
     attempts: smallint({ unsigned: true }).notNull().default(0),
+    /** Waits for a passing fault (storage or database not answering); counted apart from attempts. */
+    retries: smallint({ unsigned: true }).notNull().default(0),
     /** Not before this time (retry back-off). */
     availableAt: ms().notNull(),
-    claimedBy: varchar({ length: 80 }),
+    /** The current claim: the holder's instance id plus a nonce per claim (lib/jobs/ingest-jobs.ts). */
+    claimedBy: varchar({ length: 100 }),
     heartbeatAt: ms(),
     lastError: text(),
     ...lifecycleDates(),

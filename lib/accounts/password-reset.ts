@@ -8,7 +8,6 @@ import { hashToken, newToken } from "@/lib/auth/secrets";
 import { env } from "@/lib/env";
 import { ValidationError } from "@/lib/errors";
 import { passwordResetMail } from "@/lib/mail/templates";
-import { endAllSessions } from "@/lib/auth/sessions";
 import { queueMail } from "@/lib/mail/outbox";
 
 export const RESET_TTL_MS = 60 * 60 * 1000;
@@ -40,7 +39,8 @@ export async function resetPassword(token: string, password: string, now = new D
       .where(eq(passwordResets.tokenHash, hashToken(token)))
       .for("update");
     if (!row || row.usedAt || row.expiresAt <= now) throw new ValidationError(spentLink);
-    await tx.update(users).set({ passwordHash }).where(eq(users.id, row.userId));
+    // The new password and the end of every older session commit together (ASVS V3.3.3).
+    await tx.update(users).set({ passwordHash, sessionsValidAfter: new Date() }).where(eq(users.id, row.userId));
     await tx
       .update(passwordResets)
       .set({ usedAt: now })
@@ -48,8 +48,6 @@ export async function resetPassword(token: string, password: string, now = new D
     const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, row.userId));
     return { email: u.email, userId: row.userId };
   });
-  // A new password ends every session, including any opened with the old one (ASVS V3.3.3).
-  await endAllSessions(result.userId);
   await audit({ actorId: result.userId, action: "password.reset", targetType: "user", targetId: result.userId });
   return { email: result.email };
 }

@@ -10,10 +10,12 @@
  *     found no recipient, or every send failed); otherwise this re-parse repeats an outcome the
  *     leads already know about.
  * A send to a lead that fails is logged and skipped; the entry is written when at least one mail
- * went out. Nothing here can fail or delay the ingest that triggered it.
+ * went out. The worker runs this after the analysis committed and before it marks the job done, so
+ * a crash in between repeats the decision when the job is read again; mail itself goes through the
+ * outbox, so an SMTP outage only delays it. Nothing here can fail the ingest.
  */
 import { and, eq } from "drizzle-orm";
-import { db } from "@/db/client";
+import { db, type Database } from "@/db/client";
 import { auditLog, builds, crews, memberships, runs, users, type VerdictLevel } from "@/db/schema";
 import type { RunSummary } from "@/components/debrief/figure-list";
 import { audit } from "@/lib/audit";
@@ -27,37 +29,21 @@ export type AlertResult =
   | { sent: number; failed: number; recipients: number[] }
   | { skipped: "not-ready" | "not-act" | "already-sent" | "no-recipients" };
 
-/** Alerts per run run one after another (a quick re-parse must see the previous alert's entry). */
-const g = globalThis as unknown as { sortieRunAlerts?: Map<number, Promise<unknown>> };
-const chains = (g.sortieRunAlerts ??= new Map<number, Promise<unknown>>());
-
 /**
- * The ingest hook: called once after a run's analysis committed, with the verdict the run had
- * before it. Returns at once; errors are logged, never thrown.
+ * The ingest hook, run inside the ingest transaction just before it commits, with the verdict the
+ * run had before this analysis: the decision, its audit entry and its queued mail commit (or roll
+ * back) with the new figures. Errors are logged, never thrown: an alert must not fail an ingest.
  */
-export function alertAfterAnalysis(runId: number, previousVerdict: VerdictLevel | null): void {
+export async function alertAfterAnalysis(runId: number, previousVerdict: VerdictLevel | null, dbx: Database = db()): Promise<void> {
   try {
-    const prev = chains.get(runId) ?? Promise.resolve();
-    const job: Promise<unknown> = prev
-      .catch(() => {})
-      .then(() => sendRunAlert(runId, previousVerdict))
-      .catch((e: unknown) => console.error(`[alerts] run ${runId}: ${(e as Error).message}`))
-      .finally(() => {
-        if (chains.get(runId) === job) chains.delete(runId);
-      });
-    chains.set(runId, job);
+    await sendRunAlert(runId, previousVerdict, dbx);
   } catch (e) {
     console.error(`[alerts] run ${runId}: ${(e as Error).message}`);
   }
 }
 
-/** Resolves when no alert is being worked on (for scripts that close the database afterwards). */
-export async function alertsIdle(): Promise<void> {
-  while (chains.size) await Promise.allSettled([...chains.values()]);
-}
-
-async function alreadyAlerted(runId: number): Promise<boolean> {
-  const [row] = await db()
+async function alreadyAlerted(runId: number, dbx: Database): Promise<boolean> {
+  const [row] = await dbx
     .select({ id: auditLog.id })
     .from(auditLog)
     .where(and(eq(auditLog.action, ALERT_ACTION), eq(auditLog.targetType, "run"), eq(auditLog.targetId, String(runId))))
@@ -66,27 +52,27 @@ async function alreadyAlerted(runId: number): Promise<boolean> {
 }
 
 /** Leads of the crew who want verdict alerts. */
-function alertedLeads(crewId: number) {
-  return db()
+function alertedLeads(crewId: number, dbx: Database) {
+  return dbx
     .select({ id: users.id, email: users.email, name: users.name, units: users.units })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.crewId, crewId), eq(memberships.role, "lead"), eq(users.alertEmails, true)));
 }
 
-/** Decides and sends (see the file comment). Exported for tests and scripts; the ingest uses alertAfterAnalysis. */
-export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel | null): Promise<AlertResult> {
-  const [run] = await db().select().from(runs).where(eq(runs.id, runId)).limit(1);
+/** Decides and queues (see the file comment). Exported for tests and scripts; the ingest uses alertAfterAnalysis. */
+export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel | null, dbx: Database = db()): Promise<AlertResult> {
+  const [run] = await dbx.select().from(runs).where(eq(runs.id, runId)).limit(1);
   if (!run || run.status !== "ready") return { skipped: "not-ready" };
   if (run.verdict !== "act") return { skipped: "not-act" };
-  if (previousVerdict === "act" && (await alreadyAlerted(runId))) return { skipped: "already-sent" };
+  if (previousVerdict === "act" && (await alreadyAlerted(runId, dbx))) return { skipped: "already-sent" };
 
-  const leads = await alertedLeads(run.crewId);
+  const leads = await alertedLeads(run.crewId, dbx);
   if (leads.length === 0) return { skipped: "no-recipients" };
   const [[crew], [build], [pilot]] = await Promise.all([
-    db().select({ name: crews.name }).from(crews).where(eq(crews.id, run.crewId)).limit(1),
-    run.buildId ? db().select({ name: builds.name }).from(builds).where(eq(builds.id, run.buildId)).limit(1) : Promise.resolve([]),
-    run.pilotId ? db().select({ name: users.name }).from(users).where(eq(users.id, run.pilotId)).limit(1) : Promise.resolve([]),
+    dbx.select({ name: crews.name }).from(crews).where(eq(crews.id, run.crewId)).limit(1),
+    run.buildId ? dbx.select({ name: builds.name }).from(builds).where(eq(builds.id, run.buildId)).limit(1) : Promise.resolve([]),
+    run.pilotId ? dbx.select({ name: users.name }).from(users).where(eq(users.id, run.pilotId)).limit(1) : Promise.resolve([]),
   ]);
   const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: string; reasons: string[] } };
   const reasons = summary.verdict?.reasons ?? [];
@@ -108,7 +94,7 @@ export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel 
       settingsUrl: `${appUrl}/settings`,
     });
     try {
-      await queueMail(mail, "run-alert");
+      await queueMail(mail, "run-alert", dbx);
       sentTo.push(lead.id);
     } catch (e) {
       failed++;
@@ -116,7 +102,7 @@ export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel 
     }
   }
   if (sentTo.length) {
-    await audit({ crewId: run.crewId, action: ALERT_ACTION, targetType: "run", targetId: run.id, detail: { verdict: "act", reasons, recipients: sentTo, previousVerdict } });
+    await audit({ crewId: run.crewId, action: ALERT_ACTION, targetType: "run", targetId: run.id, detail: { verdict: "act", reasons, recipients: sentTo, previousVerdict } }, dbx);
   }
   return { sent: sentTo.length, failed, recipients: sentTo };
 }

@@ -1,4 +1,8 @@
-const codes = new Set(["ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ER_CON_COUNT_ERROR", "EPIPE"]);
+const codes = new Set([
+  "ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ER_CON_COUNT_ERROR", "EPIPE",
+  // The server is shutting down or killed our connection; the host cannot be reached at all.
+  "ER_SERVER_SHUTDOWN", "ER_CONNECTION_KILLED", "EHOSTUNREACH", "ENOTFOUND",
+]);
 
 /** True for connection-level failures of MariaDB (answered with 503), not for query errors. */
 export function isDatabaseDown(e: unknown): boolean {

@@ -12,7 +12,7 @@ export function unavailablePage(): string {
 <meta http-equiv="refresh" content="10">
 <title>Sortie is catching its breath</title>
 <style>
-  body { margin: 0; font-family: system-ui, sans-serif; background: #f5f3ec; color: #14212b; }
+  body { margin: 0; padding: 0 1rem; font-family: system-ui, sans-serif; background: #f5f3ec; color: #14212b; }
   main { max-width: 34rem; margin: 12vh auto; padding: 2rem; background: #fffdf8; border: 1px solid #d9d4c7; border-radius: 0.75rem; }
   h1 { font-size: 1.35rem; margin: 0 0 0.75rem; }
   p { color: #46555f; line-height: 1.5; }

@@ -1,5 +1,5 @@
 import { eq, lt, sql } from "drizzle-orm";
-import { db } from "@/db/client";
+import { db, type Database } from "@/db/client";
 import { publicColumns, type PublicUser } from "@/db/queries/users";
 import { revokedSessions, users } from "@/db/schema";
 
@@ -20,9 +20,9 @@ export async function revokeSession(sid: string, userId: number): Promise<void> 
     .onDuplicateKeyUpdate({ set: { sid } });
 }
 
-/** Ends every session of a user signed in before now (after a password reset). */
-export async function endAllSessions(userId: number, now = new Date()): Promise<void> {
-  await db().update(users).set({ sessionsValidAfter: now }).where(eq(users.id, userId));
+/** Ends every session of a user signed in before now (after a password reset); `dbx` may be a transaction. */
+export async function endAllSessions(userId: number, now = new Date(), dbx: Database = db()): Promise<void> {
+  await dbx.update(users).set({ sessionsValidAfter: now }).where(eq(users.id, userId));
 }
 
 /**
@@ -31,6 +31,8 @@ export async function endAllSessions(userId: number, now = new Date()): Promise<
  */
 export async function userForSession(claims: SessionClaims): Promise<PublicUser | null> {
   if (!claims.sid || typeof claims.signedInAt !== "number") return null;
+  // An absolute lifetime: a cookie kept fresh by refreshing never outlives its revocation record.
+  if (Date.now() - claims.signedInAt > SESSION_MAX_AGE_S * 1000) return null;
   const [row] = await db()
     .select({
       ...publicColumns,

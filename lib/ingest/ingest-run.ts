@@ -1,4 +1,4 @@
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
 import type { PoolConnection } from "mysql2/promise";
 import { db, pool, schema } from "@/db/client";
@@ -6,6 +6,7 @@ import { getRunWithUpload } from "@/db/queries/runs";
 import { events, runs, type RunWarning } from "@/db/schema";
 import { alertAfterAnalysis } from "@/lib/alerts/run-alert";
 import { isDatabaseDown } from "@/lib/api/database-down";
+import { holdsClaim, settleIngestJobInTransaction } from "@/lib/jobs/ingest-jobs";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { SeriesCollector } from "@/lib/analysis/series-collector";
 import type { AnalysisEvent } from "@/lib/analysis/types";
@@ -59,13 +60,29 @@ export type IngestOutcome =
   | { kind: "lost" };
 
 export interface IngestOptions {
-  /** False on the job's last attempt: a passing fault then fails the run instead of waiting. */
+  /**
+   * The queue claim this read runs under (lib/jobs/ingest-jobs.ts). With it, every write to the
+   * run row is guarded by still holding the claim, and the job is settled inside the commit.
+   * Without it (benchmarks), the run is read unguarded.
+   */
+  token?: string;
+  /** False when the job may not wait any longer: a passing fault then fails the run. */
   mayRetry?: boolean;
-  /** Checked inside the transaction just before commit (lib/jobs/ingest-jobs.ts). */
-  stillHolds?: (conn: PoolConnection) => Promise<boolean>;
+  /** Aborted when the worker learns the claim is lost; the read stops at the next batch. */
+  signal?: AbortSignal;
 }
 
 class LostClaim extends Error {}
+
+/** The driver's error code, also when Drizzle wraps the driver error in `cause`. */
+function errorCode(e: unknown): string | undefined {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: string }).code;
+    if (code) return code;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return undefined;
+}
 
 /** Connection-level failures of S3 or MariaDB, worth another attempt later. */
 function isPassingFault(e: unknown): boolean {
@@ -80,8 +97,18 @@ function isPassingFault(e: unknown): boolean {
  * transaction; a failure part-way rolls back, so a run never has partial samples.
  */
 export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt = 1): Promise<IngestOutcome> {
-  const row = await getRunWithUpload(runId);
+  // Writes to the run row outside the transaction only land while this read holds the claim.
+  const thisRun = opts.token ? and(eq(runs.id, runId), holdsClaim(runId, opts.token))! : eq(runs.id, runId);
+  const stillHeld = async () => !opts.token || (await db().select({ id: runs.id }).from(runs).where(thisRun).limit(1)).length > 0;
+  let row: Awaited<ReturnType<typeof getRunWithUpload>>;
+  try {
+    row = await getRunWithUpload(runId);
+  } catch (e) {
+    // The database went away between the claim and here: the job waits, the run is untouched.
+    return { kind: "retry", error: describeFailure(e) };
+  }
   if (!row) return { kind: "failed", error: "run not found" };
+  if (!(await stillHeld().catch(() => true))) return { kind: "lost" };
   const { run, upload } = row;
 
   let bytes = 0;
@@ -93,19 +120,19 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     if (!force && now - reported < PROGRESS_EVERY_MS) return;
     reported = now;
     const progress = Math.min(0.99, upload.sizeBytes ? bytes / upload.sizeBytes : 0);
-    progressWrite = progressWrite.then(() => db().update(runs).set({ progress }).where(eq(runs.id, runId))).catch(() => {});
+    progressWrite = progressWrite.then(() => db().update(runs).set({ progress }).where(thisRun)).catch(() => {});
   };
 
   let conn: PoolConnection | null = null;
   let load: ReturnType<typeof startSampleLoad> | null = null;
   try {
-    await db().update(runs).set({ status: "parsing", progress: 0, error: null }).where(eq(runs.id, runId));
+    await db().update(runs).set({ status: "parsing", progress: 0, error: null }).where(thisRun);
     conn = await pool().getConnection();
     const body = await readObject(upload.objectKey);
     const { head, source } = await peek(countingSource(body, (n) => ((bytes += n), reportProgress())));
     const format = detectFormat(head, upload.fileName);
     // Known before parsing, so a CSV that fails still offers its column map for correction.
-    await db().update(runs).set({ format }).where(eq(runs.id, runId));
+    await db().update(runs).set({ format }).where(thisRun);
     const columnMap = format === "csv" && run.columnMap ? columnMapSchema.parse(run.columnMap) : undefined;
 
     const inputs = await loadAnalysisInputs(run);
@@ -122,6 +149,7 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     const summary = await parseLog(format, source, {
       columnMap,
       onBatch: async (b: SampleBatch) => {
+        if (opts.signal?.aborted) throw new LostClaim();
         // The latest time, not the last row's: a clock that steps back must not shorten the run.
         for (let i = 0; i < b.length; i++) if (b.columns.tS[i] > lastT || lastT !== lastT) lastT = b.columns.tS[i];
         // From the first batch's share of the bytes, size the series for the whole file once.
@@ -137,7 +165,7 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
 
     await progressWrite;
     const warnings: RunWarning[] = summary.warnings.map((w) => ({ ...w }));
-    await db().update(runs).set({ status: "analysing" }).where(eq(runs.id, runId));
+    await db().update(runs).set({ status: "analysing" }).where(thisRun);
     const series = collector.series(summary.modeNames);
     const analysis = analyseRun(series, inputs);
     const tx = drizzle(conn as never, { schema, mode: "default", casing: "snake_case" });
@@ -168,17 +196,17 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
         error: null,
       })
       .where(eq(runs.id, runId));
-    if (opts.stillHolds && !(await opts.stillHolds(conn))) throw new LostClaim();
+    // The alert decision and its mail commit with the figures: exactly once per analysis.
+    await alertAfterAnalysis(runId, run.verdict ?? null, tx);
+    if (opts.token && !(await settleIngestJobInTransaction(conn, runId, opts.token))) throw new LostClaim();
     await conn.commit();
-    // After the commit, never awaited: mail must not hold up or fail the ingest.
-    alertAfterAnalysis(runId, run.verdict ?? null);
     return { kind: "ready" };
   } catch (e) {
     await load?.abort();
     await conn?.rollback().catch(() => {});
     await progressWrite;
-    if (e instanceof LostClaim) return { kind: "lost" };
-    if ((e as { code?: string }).code === "ER_LOCK_DEADLOCK" && attempt < 3) {
+    if (e instanceof LostClaim || !(await stillHeld().catch(() => true))) return { kind: "lost" };
+    if (errorCode(e) === "ER_LOCK_DEADLOCK" && attempt < 3) {
       conn?.release();
       conn = null;
       return ingestRun(runId, opts, attempt + 1);
@@ -186,7 +214,7 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     if (opts.mayRetry && isPassingFault(e)) {
       console.error(`[ingest] run ${runId}: passing fault, will retry: ${(e as Error)?.message}`);
       const error = "A storage service stopped answering while the log was read; trying again shortly";
-      await db().update(runs).set({ status: "queued", progress: 0, error }).where(eq(runs.id, runId)).catch(() => {});
+      await db().update(runs).set({ status: "queued", progress: 0, error }).where(thisRun).catch(() => {});
       return { kind: "retry", error };
     }
     // A failed run has no samples, also when a re-parse fails after an earlier good parse.
@@ -197,7 +225,7 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     await db()
       .update(runs)
       .set({ status: "failed", progress: 0, error, sampleCount: 0 })
-      .where(eq(runs.id, runId))
+      .where(thisRun)
       .catch(() => {});
     return { kind: "failed", error };
   } finally {

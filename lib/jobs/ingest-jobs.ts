@@ -1,18 +1,23 @@
-import { and, eq, inArray, sql } from "drizzle-orm";
+import { randomBytes } from "node:crypto";
+import { and, eq, inArray, sql, type SQL } from "drizzle-orm";
 import type { PoolConnection } from "mysql2/promise";
 import { db, pool } from "@/db/client";
 import { ingestJobs, runs } from "@/db/schema";
 
 /**
  * The ingest queue's table operations (db/schema/jobs.ts). Every time comes from the database's
- * own clock, so instances with skewed clocks still agree on what is stale.
+ * own clock, so instances with skewed clocks still agree on what is stale. A claim is named by a
+ * token (instance id + a nonce per claim), so a process that lost a claim and claimed the job
+ * again can never act on the newer claim with the older one.
  */
 
 export interface ClaimedJob {
   id: number;
   runId: number;
-  /** This claim's number, from 1. */
+  /** This claim's number, from 1 (passing-fault retries do not count). */
   attempt: number;
+  retries: number;
+  token: string;
 }
 
 const affected = (r: unknown) => (r as { affectedRows?: number }).affectedRows ?? 0;
@@ -21,9 +26,9 @@ const affected = (r: unknown) => (r as { affectedRows?: number }).affectedRows ?
 export async function enqueueIngestJob(runId: number): Promise<void> {
   await db()
     .insert(ingestJobs)
-    .values({ runId, state: "queued", attempts: 0, availableAt: sql`NOW(3)` })
+    .values({ runId, state: "queued", attempts: 0, retries: 0, availableAt: sql`NOW(3)` })
     .onDuplicateKeyUpdate({
-      set: { state: "queued", attempts: 0, availableAt: sql`NOW(3)`, claimedBy: null, heartbeatAt: null, lastError: null },
+      set: { state: "queued", attempts: 0, retries: 0, availableAt: sql`NOW(3)`, claimedBy: null, heartbeatAt: null, lastError: null },
     });
 }
 
@@ -33,16 +38,17 @@ export async function claimIngestJob(owner: string): Promise<ClaimedJob | null> 
   try {
     await conn.beginTransaction();
     const [rows] = await conn.query(
-      "SELECT id, run_id, attempts FROM ingest_jobs WHERE state = 'queued' AND available_at <= NOW(3) ORDER BY available_at, id LIMIT 1 FOR UPDATE SKIP LOCKED",
+      "SELECT id, run_id, attempts, retries FROM ingest_jobs WHERE state = 'queued' AND available_at <= NOW(3) ORDER BY available_at, id LIMIT 1 FOR UPDATE SKIP LOCKED",
     );
-    const row = (rows as { id: number; run_id: number; attempts: number }[])[0];
+    const row = (rows as { id: number; run_id: number; attempts: number; retries: number }[])[0];
     if (!row) {
       await conn.commit();
       return null;
     }
-    await conn.query("UPDATE ingest_jobs SET state = 'running', claimed_by = ?, heartbeat_at = NOW(3), attempts = attempts + 1 WHERE id = ?", [owner, row.id]);
+    const token = `${owner}#${randomBytes(3).toString("hex")}`;
+    await conn.query("UPDATE ingest_jobs SET state = 'running', claimed_by = ?, heartbeat_at = NOW(3), attempts = attempts + 1, updated_at = NOW(3) WHERE id = ?", [token, row.id]);
     await conn.commit();
-    return { id: Number(row.id), runId: Number(row.run_id), attempt: row.attempts + 1 };
+    return { id: Number(row.id), runId: Number(row.run_id), attempt: row.attempts + 1, retries: row.retries, token };
   } catch (e) {
     await conn.rollback().catch(() => {});
     throw e;
@@ -51,73 +57,119 @@ export async function claimIngestJob(owner: string): Promise<ClaimedJob | null> 
   }
 }
 
-/** Keeps a claim alive; false when the claim was lost (queued again by a sweep, or re-queued by a re-parse). */
-export async function heartbeatIngestJob(jobId: number, owner: string): Promise<boolean> {
+/** SQL that is true while `token` still holds the run's job (for guarded writes to the run row). */
+export function holdsClaim(runId: number, token: string): SQL {
+  return sql`EXISTS (SELECT 1 FROM ${ingestJobs} WHERE ${ingestJobs.runId} = ${runId} AND ${ingestJobs.state} = 'running' AND ${ingestJobs.claimedBy} = ${token})`;
+}
+
+/** Keeps a claim alive; false when it was lost (queued again by a sweep, or by a re-parse). */
+export async function heartbeatIngestJob(jobId: number, token: string): Promise<boolean> {
   const [r] = await db()
     .update(ingestJobs)
     .set({ heartbeatAt: sql`NOW(3)` })
-    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, owner)));
+    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, token)));
   return affected(r) > 0;
 }
 
 /**
- * Inside the ingest transaction, just before it commits: locks the job row and says whether this
- * instance still holds it, so a process that lost its claim never commits over the new holder.
+ * Inside the ingest transaction, just before it commits: locks the job row and, if `token` still
+ * holds it, marks it done in the same transaction. False when the claim was lost: the caller
+ * rolls back, so a process that lost its claim never commits over the new holder, and a commit is
+ * never followed by a job left "running".
  */
-export async function stillHoldsIngestJob(conn: PoolConnection, runId: number, owner: string): Promise<boolean> {
+export async function settleIngestJobInTransaction(conn: PoolConnection, runId: number, token: string): Promise<boolean> {
   const [rows] = await conn.query("SELECT state, claimed_by FROM ingest_jobs WHERE run_id = ? FOR UPDATE", [runId]);
   const row = (rows as { state: string; claimed_by: string | null }[])[0];
-  return row?.state === "running" && row.claimed_by === owner;
+  if (row?.state !== "running" || row.claimed_by !== token) return false;
+  await conn.query("UPDATE ingest_jobs SET state = 'done', last_error = NULL, updated_at = NOW(3) WHERE run_id = ?", [runId]);
+  return true;
 }
 
-export async function finishIngestJob(jobId: number, owner: string, state: "done" | "failed", error?: string): Promise<void> {
+export async function failIngestJob(jobId: number, token: string, error: string): Promise<void> {
   await db()
     .update(ingestJobs)
-    // claimed_by stays: it tells an operator which process read the log.
-    .set({ state, lastError: error ?? null })
-    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, owner)));
+    .set({ state: "failed", lastError: error })
+    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, token)));
 }
 
-/** A passing fault (storage or database not answering): back in the queue after `delayS`. */
-export async function retryIngestJobLater(jobId: number, owner: string, delayS: number, error: string): Promise<void> {
+/** A passing fault: back in the queue after `delayS`; the claim does not count as an attempt. */
+export async function retryIngestJobLater(jobId: number, token: string, delayS: number, error: string): Promise<void> {
   await db()
     .update(ingestJobs)
-    .set({ state: "queued", claimedBy: null, heartbeatAt: null, lastError: error, availableAt: sql`NOW(3) + INTERVAL ${Math.round(delayS * 1e6)} MICROSECOND` })
-    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, owner)));
+    .set({
+      state: "queued",
+      claimedBy: null,
+      heartbeatAt: null,
+      lastError: error,
+      attempts: sql`GREATEST(${ingestJobs.attempts} - 1, 0)`,
+      retries: sql`${ingestJobs.retries} + 1`,
+      availableAt: sql`NOW(3) + INTERVAL ${Math.round(delayS * 1e6)} MICROSECOND`,
+    })
+    .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, token)));
 }
 
 export const GAVE_UP = (n: number) =>
   `Reading this log stopped ${n} times before it finished (the server was restarted or ran out of memory); re-parse it to try again`;
 
+const inProgress = sql`('queued', 'parsing', 'analysing')`;
+
 /**
  * Jobs whose holder stopped sending heartbeats (its process died): queued again, or failed once
- * they have used their attempts. Safe to run from every instance at once; each UPDATE is atomic.
- * Returns how many jobs were touched.
+ * they have used their attempts (a failed run keeps no samples). Claims in `liveTokens` (this
+ * process's own readers, alive by definition) are left alone. Safe to run from every instance.
  */
-export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: number): Promise<{ requeued: number; failed: number }> {
-  // Give-ups first, so the re-queue below cannot pick them up.
-  const [gaveUp] = await db().execute(sql`
-    UPDATE ${runs} r JOIN ${ingestJobs} j ON j.run_id = r.id
-    SET j.state = 'failed', j.claimed_by = NULL, j.last_error = 'stale', r.status = 'failed', r.progress = 0, r.sample_count = 0, r.error = ${GAVE_UP(maxAttempts)}
-    WHERE j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND AND j.attempts >= ${maxAttempts}`);
+export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: number, liveTokens: string[]): Promise<{ requeued: number; failed: number }> {
+  const notMine = liveTokens.length ? sql`AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (${sql.join(liveTokens.map((t) => sql`${t}`), sql`, `)}))` : sql``;
+  const stale = sql`j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND ${notMine}`;
+
+  let failed = 0;
+  const conn = await pool().getConnection();
+  try {
+    await conn.beginTransaction();
+    const [rows] = await conn.query(
+      `SELECT j.run_id FROM ingest_jobs j WHERE j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ? SECOND
+       ${liveTokens.length ? "AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (?))" : ""} AND j.attempts >= ? FOR UPDATE SKIP LOCKED`,
+      liveTokens.length ? [staleAfterS, liveTokens, maxAttempts] : [staleAfterS, maxAttempts],
+    );
+    for (const { run_id: runId } of rows as { run_id: number }[]) {
+      // As after any failure: no samples, events or display levels of an earlier parse stay behind.
+      await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
+      await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
+      await conn.query("DELETE FROM series_levels WHERE run_id = ?", [runId]);
+      await conn.query("UPDATE ingest_jobs SET state = 'failed', last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?", [runId]);
+      await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id = ?", [GAVE_UP(maxAttempts), runId]);
+      failed++;
+    }
+    await conn.commit();
+  } catch (e) {
+    await conn.rollback().catch(() => {});
+    throw e;
+  } finally {
+    conn.release();
+  }
   const [requeued] = await db().execute(sql`
-    UPDATE ${runs} r JOIN ${ingestJobs} j ON j.run_id = r.id
-    SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.last_error = 'stale', r.status = 'queued', r.progress = 0
-    WHERE j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND AND j.attempts < ${maxAttempts}`);
-  // A multi-table UPDATE counts rows of both tables.
-  return { requeued: Math.ceil(affected(requeued) / 2), failed: Math.ceil(affected(gaveUp) / 2) };
+    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
+    SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.last_error = 'stale', j.updated_at = NOW(3), r.status = 'queued', r.progress = 0
+    WHERE ${stale} AND j.attempts < ${maxAttempts}`);
+  return { requeued: Math.ceil(affected(requeued) / 2), failed };
 }
 
 /**
- * Runs left queued or mid-read with no job row (stored before the queue existed): given one, so
- * the queue picks them up. Run once at start.
+ * Runs that say they are being read while no job is open for them (a write that failed half-way
+ * during an outage, or runs stored before the queue existed): given a fresh job, so no run can
+ * stay "queued" or "parsing" for good. Cheap, and idempotent across instances.
  */
-export async function adoptOrphanRuns(): Promise<number> {
-  const [r] = await db().execute(sql`
-    INSERT IGNORE INTO ${ingestJobs} (run_id, state, attempts, available_at)
-    SELECT r.id, 'queued', 0, NOW(3) FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
-    WHERE j.id IS NULL AND r.status IN ('queued', 'parsing', 'analysing')`);
-  return affected(r);
+export async function reconcileIngestJobs(): Promise<number> {
+  const [adopted] = await db().execute(sql`
+    INSERT IGNORE INTO ${ingestJobs} (run_id, state, attempts, retries, available_at)
+    SELECT r.id, 'queued', 0, 0, NOW(3) FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
+    WHERE j.id IS NULL AND r.status IN ${inProgress}`);
+  // Settled jobs whose run is still marked in progress, left a while so an enqueue in flight wins.
+  const [revived] = await db().execute(sql`
+    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
+    SET j.state = 'queued', j.attempts = 0, j.retries = 0, j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.updated_at = NOW(3)
+    WHERE j.state IN ('done', 'failed') AND r.status IN ${inProgress} AND j.updated_at < NOW(3) - INTERVAL 10 SECOND`);
+  return affected(adopted) + affected(revived);
 }
 
 /** Jobs waiting or being read (for scripts that wait for the queue to empty). */
@@ -127,9 +179,4 @@ export async function openIngestJobs(): Promise<number> {
     .from(ingestJobs)
     .where(inArray(ingestJobs.state, ["queued", "running"]));
   return Number(row?.n ?? 0);
-}
-
-export async function ingestJobFor(runId: number) {
-  const [row] = await db().select().from(ingestJobs).where(eq(ingestJobs.runId, runId)).limit(1);
-  return row ?? null;
 }

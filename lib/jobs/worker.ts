@@ -1,11 +1,11 @@
 import { isDatabaseDown } from "@/lib/api/database-down";
+import { pruneRevokedSessions } from "@/lib/auth/sessions";
 import { env } from "@/lib/env";
 import { ingestRun, type IngestOutcome } from "@/lib/ingest/ingest-run";
 import { drainOutbox, onMailQueued } from "@/lib/mail/outbox";
-import { pruneRevokedSessions } from "@/lib/auth/sessions";
 import { instanceId } from "./instance-id";
 import {
-  adoptOrphanRuns, claimIngestJob, finishIngestJob, heartbeatIngestJob, openIngestJobs, retryIngestJobLater, stillHoldsIngestJob, sweepStaleIngestJobs,
+  claimIngestJob, failIngestJob, heartbeatIngestJob, openIngestJobs, reconcileIngestJobs, retryIngestJobLater, sweepStaleIngestJobs,
   type ClaimedJob,
 } from "./ingest-jobs";
 
@@ -13,19 +13,27 @@ import {
  * The background worker: claims ingest jobs and sends queued mail. Every app instance runs one
  * (unless BACKGROUND_JOBS=off), and `npm run worker` runs one without serving pages. All state is
  * in MariaDB, so any number of them can share the work; a poll picks up jobs queued elsewhere.
+ * Ingest and mail run in separate loops, so a stalled mail server never holds up a log.
  */
 const POLL_MS = 1_000;
 const SWEEP_EVERY_MS = 2_000;
-/** Waits before a job that met a passing fault is tried again. */
-const RETRY_DELAYS_S = [2, 10, 30];
+const RECONCILE_EVERY_MS = 15_000;
+/** Waits before a job that met a passing fault is tried again; the last one repeats. */
+const RETRY_DELAYS_S = [2, 10, 30, 60];
+/** About 20 minutes of outage before a run waiting on storage is failed with a re-parse hint. */
+const MAX_RETRIES = 22;
 
 interface WorkerState {
   owner: string;
   timer: NodeJS.Timeout | null;
-  running: Map<number, Promise<void>>;
-  ticking: boolean;
+  /** Readers in hand, by claim token. */
+  running: Map<string, Promise<void>>;
+  tick: Promise<void> | null;
   again: boolean;
+  mail: Promise<void> | null;
+  mailAgain: boolean;
   lastSweep: number;
+  lastReconcile: number;
   lastComplaint: number;
   stopped: boolean;
 }
@@ -43,28 +51,33 @@ export function startWorker(): void {
     owner: instanceId(),
     timer: null,
     running: new Map(),
-    ticking: false,
+    tick: null,
     again: false,
+    mail: null,
+    mailAgain: false,
     lastSweep: 0,
+    lastReconcile: 0,
     lastComplaint: 0,
     stopped: false,
   });
-  state.timer = setInterval(() => void tick(state), POLL_MS);
+  state.timer = setInterval(() => {
+    pokeWorker();
+    pokeMail();
+  }, POLL_MS);
   // A worker inside a script must not keep the process alive once the script is done.
   state.timer.unref();
-  onMailQueued(() => pokeWorker());
-  adoptOrphanRuns()
-    .then((n) => n && console.log(`[ingest] ${n} run(s) left mid-read without a job were queued again`))
-    .catch(() => {})
-    .finally(() => void tick(state));
+  onMailQueued(() => pokeMail());
+  pokeWorker();
 }
 
-/** Stops claiming new work and waits for jobs in hand to finish. */
+/** Stops claiming new work and waits for the work in hand (logs being read, mail being sent). */
 export async function stopWorker(): Promise<void> {
   const state = g.sortieWorker;
   if (!state) return;
   state.stopped = true;
   if (state.timer) clearInterval(state.timer);
+  await state.tick?.catch(() => {});
+  await state.mail?.catch(() => {});
   await Promise.allSettled([...state.running.values()]);
   g.sortieWorker = undefined;
 }
@@ -72,74 +85,104 @@ export async function stopWorker(): Promise<void> {
 /** Work was queued in this process: look now rather than at the next poll. */
 export function pokeWorker(): void {
   const state = g.sortieWorker;
-  if (state && !state.stopped) setImmediate(() => void tick(state));
-}
-
-async function tick(state: WorkerState): Promise<void> {
-  if (state.stopped) return;
-  if (state.ticking) {
+  if (!state || state.stopped) return;
+  if (state.tick) {
     state.again = true;
     return;
   }
-  state.ticking = true;
-  try {
-    const e = env();
-    if (Date.now() - state.lastSweep > SWEEP_EVERY_MS) {
-      state.lastSweep = Date.now();
-      const swept = await sweepStaleIngestJobs(e.INGEST_STALE_AFTER_S, e.INGEST_MAX_ATTEMPTS);
-      if (Math.random() < 0.01) await pruneRevokedSessions();
-      if (swept.requeued || swept.failed) {
-        console.log(`[ingest] jobs whose reader stopped: ${swept.requeued} queued again, ${swept.failed} failed after ${e.INGEST_MAX_ATTEMPTS} attempts`);
-      }
-    }
-    while (!state.stopped && state.running.size < e.INGEST_PARALLEL) {
-      const job = await claimIngestJob(state.owner);
-      if (!job) break;
-      state.running.set(job.id, runJob(state, job));
-    }
-    await drainOutbox();
-  } catch (err) {
-    // A database outage: say so once a minute, keep polling, pick up where we were when it returns.
-    if (Date.now() - state.lastComplaint > 60_000) {
-      state.lastComplaint = Date.now();
-      console.error(`[worker] ${isDatabaseDown(err) ? "database not answering" : "poll failed"}: ${(err as Error).message}`);
-    }
-  } finally {
-    state.ticking = false;
+  state.tick = tick(state).finally(() => {
+    state.tick = null;
     if (state.again) {
       state.again = false;
       pokeWorker();
     }
+  });
+}
+
+function pokeMail(): void {
+  const state = g.sortieWorker;
+  if (!state || state.stopped) return;
+  if (state.mail) {
+    state.mailAgain = true;
+    return;
+  }
+  state.mail = drainOutbox()
+    .then(() => undefined)
+    .catch((err) => complain(state, "mail", err))
+    .finally(() => {
+      state.mail = null;
+      if (state.mailAgain) {
+        state.mailAgain = false;
+        pokeMail();
+      }
+    });
+}
+
+/** A database outage: say so once a minute, keep polling, pick up where we were when it returns. */
+function complain(state: WorkerState, what: string, err: unknown): void {
+  if (Date.now() - state.lastComplaint < 60_000) return;
+  state.lastComplaint = Date.now();
+  console.error(`[worker] ${what}: ${isDatabaseDown(err) ? "database not answering" : "poll failed"}: ${(err as Error).message}`);
+}
+
+async function tick(state: WorkerState): Promise<void> {
+  try {
+    const e = env();
+    const now = Date.now();
+    if (now - state.lastSweep > SWEEP_EVERY_MS) {
+      state.lastSweep = now;
+      const swept = await sweepStaleIngestJobs(e.INGEST_STALE_AFTER_S, e.INGEST_MAX_ATTEMPTS, [...state.running.keys()]);
+      if (swept.requeued || swept.failed) {
+        console.log(`[ingest] jobs whose reader stopped: ${swept.requeued} queued again, ${swept.failed} failed after ${e.INGEST_MAX_ATTEMPTS} attempts`);
+      }
+    }
+    if (now - state.lastReconcile > RECONCILE_EVERY_MS) {
+      state.lastReconcile = now;
+      const n = await reconcileIngestJobs();
+      if (n) console.log(`[ingest] ${n} run(s) marked in progress without an open job were queued again`);
+      await pruneRevokedSessions();
+    }
+    while (!state.stopped && state.running.size < e.INGEST_PARALLEL) {
+      const job = await claimIngestJob(state.owner);
+      if (!job) break;
+      state.running.set(job.token, runJob(state, job));
+    }
+  } catch (err) {
+    complain(state, "ingest", err);
   }
 }
 
 async function runJob(state: WorkerState, job: ClaimedJob): Promise<void> {
-  const { INGEST_STALE_AFTER_S, INGEST_MAX_ATTEMPTS } = env();
-  const beat = setInterval(() => void heartbeatIngestJob(job.id, state.owner).catch(() => {}), Math.max(500, (INGEST_STALE_AFTER_S * 1000) / 4));
+  const { INGEST_STALE_AFTER_S } = env();
+  const lost = new AbortController();
+  const beat = setInterval(() => {
+    heartbeatIngestJob(job.id, job.token)
+      .then((held) => held || lost.abort())
+      .catch(() => {});
+  }, Math.max(500, (INGEST_STALE_AFTER_S * 1000) / 4));
   let outcome: IngestOutcome;
   try {
-    outcome = await ingestRun(job.runId, {
-      mayRetry: job.attempt < INGEST_MAX_ATTEMPTS,
-      stillHolds: (conn) => stillHoldsIngestJob(conn, job.runId, state.owner),
-    });
+    outcome = await ingestRun(job.runId, { token: job.token, mayRetry: job.retries < MAX_RETRIES, signal: lost.signal });
   } catch (err) {
     outcome = { kind: "failed", error: (err as Error).message };
   } finally {
     clearInterval(beat);
   }
   try {
+    // "ready" settled the job inside its own commit; "lost" belongs to another claim now.
     if (outcome.kind === "retry") {
-      const delay = RETRY_DELAYS_S[Math.min(job.attempt - 1, RETRY_DELAYS_S.length - 1)];
-      await retryIngestJobLater(job.id, state.owner, delay, outcome.error);
-    } else if (outcome.kind !== "lost") {
-      await finishIngestJob(job.id, state.owner, outcome.kind === "ready" ? "done" : "failed", outcome.kind === "failed" ? outcome.error : undefined);
+      await retryIngestJobLater(job.id, job.token, RETRY_DELAYS_S[Math.min(job.retries, RETRY_DELAYS_S.length - 1)], outcome.error);
+    } else if (outcome.kind === "failed") {
+      await failIngestJob(job.id, job.token, outcome.error);
     }
   } catch (err) {
     // Unrecorded: the heartbeat has stopped, so a sweep settles this job later.
     console.error(`[ingest] could not record the end of job ${job.id}: ${(err as Error).message}`);
   } finally {
-    state.running.delete(job.id);
+    state.running.delete(job.token);
     pokeWorker();
+    // An alert queued with the analysis goes out now rather than at the next poll.
+    if (outcome.kind === "ready") pokeMail();
   }
 }
 

@@ -1,12 +1,11 @@
-import { and, eq, inArray, sql } from "drizzle-orm";
-import { db, pool } from "@/db/client";
+import { and, eq, sql } from "drizzle-orm";
+import { db, pool, type Database } from "@/db/client";
 import { mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
 import { deliverMail, type Mail } from "./transport";
 
-/** While one instance is sending a message, others leave it alone this long. */
+/** While one instance is sending a message, others leave it alone this long (SMTP timeouts are 10 s + 60 s). */
 const SEND_LEASE_S = 180;
-const BATCH = 10;
 
 export type MailKind = "invitation" | "password-reset" | "run-alert";
 
@@ -21,12 +20,13 @@ export function onMailQueued(poke: () => void): void {
  * Writes the message to the outbox; the background worker sends it, now or, when SMTP is down,
  * on a later attempt. Callers never wait on SMTP and an outage loses nothing.
  */
-export async function queueMail(mail: Mail, kind: MailKind): Promise<number> {
-  const [{ id }] = await db()
+export async function queueMail(mail: Mail, kind: MailKind, dbx: Database = db()): Promise<number> {
+  const [{ id }] = await dbx
     .insert(mailOutbox)
     .values({ toAddress: mail.to, subject: mail.subject.slice(0, 300), textBody: mail.text, htmlBody: mail.html, kind, nextAttemptAt: sql`NOW(3)` })
     .$returningId();
-  g.sortieMailPoke?.();
+  // Inside a caller's transaction the row is not visible yet; the worker's next poll sends it.
+  if (dbx === db()) g.sortieMailPoke?.();
   return id;
 }
 
@@ -35,24 +35,24 @@ export function mailRetryDelayS(attempts: number, baseS: number): number {
   return Math.min(6 * 3600, baseS * 2 ** Math.max(0, attempts - 1));
 }
 
-/** Leases up to BATCH due messages to this instance (SKIP LOCKED: instances never wait on each other). */
-async function leaseDue(): Promise<{ id: number; attempts: number }[]> {
+/**
+ * Leases the oldest due message to this instance (SKIP LOCKED: instances never wait on each
+ * other). The lease is the bumped attempt count: later writes about this send only land while it
+ * is still the current one, so a send that outlived its lease cannot overwrite a newer one.
+ */
+async function leaseNext(): Promise<{ id: number; attempts: number } | null> {
   const conn = await pool().getConnection();
   try {
     await conn.beginTransaction();
     const [rows] = await conn.query(
-      "SELECT id, attempts FROM mail_outbox WHERE state = 'pending' AND next_attempt_at <= NOW(3) ORDER BY id LIMIT ? FOR UPDATE SKIP LOCKED",
-      [BATCH],
+      "SELECT id, attempts FROM mail_outbox WHERE state = 'pending' AND next_attempt_at <= NOW(3) ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED",
     );
-    const due = (rows as { id: number; attempts: number }[]).map((r) => ({ id: Number(r.id), attempts: r.attempts + 1 }));
-    if (due.length) {
-      await conn.query(
-        `UPDATE mail_outbox SET attempts = attempts + 1, next_attempt_at = NOW(3) + INTERVAL ${SEND_LEASE_S} SECOND WHERE id IN (?)`,
-        [due.map((d) => d.id)],
-      );
+    const row = (rows as { id: number; attempts: number }[])[0];
+    if (row) {
+      await conn.query(`UPDATE mail_outbox SET attempts = attempts + 1, next_attempt_at = NOW(3) + INTERVAL ${SEND_LEASE_S} SECOND WHERE id = ?`, [row.id]);
     }
     await conn.commit();
-    return due;
+    return row ? { id: Number(row.id), attempts: row.attempts + 1 } : null;
   } catch (e) {
     await conn.rollback().catch(() => {});
     throw e;
@@ -61,43 +61,44 @@ async function leaseDue(): Promise<{ id: number; attempts: number }[]> {
   }
 }
 
-/** Sends what is due; returns how many went out. Run by the background worker. */
+/** Sends what is due, one message at a time; returns how many went out. Run by the background worker. */
 export async function drainOutbox(): Promise<{ sent: number; failed: number }> {
   const { MAIL_RETRY_BASE_S, MAIL_MAX_ATTEMPTS } = env();
   let sent = 0;
   let failed = 0;
   for (;;) {
-    const due = await leaseDue();
-    if (due.length === 0) return { sent, failed };
-    const rows = await db().select().from(mailOutbox).where(inArray(mailOutbox.id, due.map((d) => d.id)));
-    for (const row of rows) {
-      const attempts = due.find((d) => d.id === row.id)!.attempts;
-      try {
-        await deliverMail({ to: row.toAddress, subject: row.subject, text: row.textBody, html: row.htmlBody });
-        // The bodies can carry invitation or reset links: not kept once delivered.
-        await db()
-          .update(mailOutbox)
-          .set({ state: "sent", sentAt: sql`NOW(3)`, textBody: "", htmlBody: "", lastError: null })
-          .where(eq(mailOutbox.id, row.id));
-        sent++;
-      } catch (e) {
-        failed++;
-        const message = ((e as Error).message ?? String(e)).slice(0, 500);
-        const giveUp = attempts >= MAIL_MAX_ATTEMPTS;
-        const delayS = mailRetryDelayS(attempts, MAIL_RETRY_BASE_S);
-        await db()
-          .update(mailOutbox)
-          .set(
-            giveUp
-              ? { state: "failed", lastError: message }
-              : { lastError: message, nextAttemptAt: sql`NOW(3) + INTERVAL ${Math.round(delayS * 1e6)} MICROSECOND` },
-          )
-          .where(and(eq(mailOutbox.id, row.id), eq(mailOutbox.state, "pending")));
-        console.error(
-          `[mail] ${row.kind} mail ${row.id} not sent (attempt ${attempts}/${MAIL_MAX_ATTEMPTS}): ${message}${giveUp ? "; giving up" : `; retrying in ${delayS} s`}`,
-        );
-      }
+    const lease = await leaseNext();
+    if (!lease) return { sent, failed };
+    const mine = and(eq(mailOutbox.id, lease.id), eq(mailOutbox.state, "pending"), eq(mailOutbox.attempts, lease.attempts));
+    const [row] = await db().select().from(mailOutbox).where(eq(mailOutbox.id, lease.id));
+    if (!row) continue;
+    let error: string | null = null;
+    try {
+      await deliverMail({ to: row.toAddress, subject: row.subject, text: row.textBody, html: row.htmlBody });
+    } catch (e) {
+      error = ((e as Error).message ?? String(e)).slice(0, 500);
     }
+    if (error === null) {
+      // Delivered. If this write fails (database gone), the lease runs out and the mail goes again:
+      // a duplicate is better than a lost invitation. The bodies can carry links: not kept.
+      await db().update(mailOutbox).set({ state: "sent", sentAt: sql`NOW(3)`, textBody: "", htmlBody: "", lastError: null }).where(mine);
+      sent++;
+      continue;
+    }
+    failed++;
+    const giveUp = lease.attempts >= MAIL_MAX_ATTEMPTS;
+    const delayS = mailRetryDelayS(lease.attempts, MAIL_RETRY_BASE_S);
+    await db()
+      .update(mailOutbox)
+      .set(
+        giveUp
+          ? { state: "failed", lastError: error, textBody: "", htmlBody: "" }
+          : { lastError: error, nextAttemptAt: sql`NOW(3) + INTERVAL ${Math.round(delayS * 1e6)} MICROSECOND` },
+      )
+      .where(mine);
+    console.error(
+      `[mail] ${row.kind} mail ${row.id} not sent (attempt ${lease.attempts}/${MAIL_MAX_ATTEMPTS}): ${error}${giveUp ? "; giving up" : `; retrying in ${delayS} s`}`,
+    );
   }
 }
 

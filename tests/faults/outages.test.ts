@@ -77,7 +77,8 @@ describe("the app server killed in the middle of an ingest", () => {
     const killedAt = Date.now();
     await stack.kill(app);
 
-    // Nothing of the interrupted load is visible, and the run does not claim to be ready.
+    // Nothing of the interrupted load is visible (this would fail if samples were committed in
+    // batches rather than in the run's one transaction), and the run does not claim to be ready.
     expect(await samplesStored(up.runId)).toBe(0);
     const row = await one<{ status: string; sample_count: number; object_key: string; sha256: string }>(
       sql`SELECT r.status, r.sample_count, u.object_key, u.sha256 FROM runs r JOIN uploads u ON u.id = r.upload_id WHERE r.id = ${up.runId}`,
@@ -96,8 +97,10 @@ describe("the app server killed in the middle of an ingest", () => {
     expect(run.status, run.error ?? "").toBe("ready");
     expect(run.sampleCount).toBe(rows);
     expect(await samplesStored(up.runId)).toBe(rows);
+    // Settled in the same commit as the samples (lib/jobs/ingest-jobs.ts), so no wait is needed.
     const job = await one<{ state: string; attempts: number }>(sql`SELECT state, attempts FROM ingest_jobs WHERE run_id = ${up.runId}`);
-    expect(job).toEqual({ state: "done", attempts: 2 });
+    expect(job.state).toBe("done");
+    expect(job.attempts).toBeGreaterThanOrEqual(2);
     report("crash", { rows, recoveredAfterS: Number(((Date.now() - killedAt) / 1000).toFixed(1)) });
   });
 });
@@ -206,10 +209,13 @@ describe("the mail server stopped", () => {
     }
     const mail = await waitForMail(invitee, /invit/i, 30_000);
     expect(mail.text ?? mail.html).toContain("/invite/");
-    const after = await one<{ state: string; attempts: number; text_body: string; html_body: string }>(
-      sql`SELECT state, attempts, text_body, html_body FROM mail_outbox WHERE to_address = ${invitee}`,
-    );
-    expect(after.state).toBe("sent");
+    // The catcher has the mail a moment before the outbox row records it.
+    const after = await waitUntil("the outbox to record the delivery", async () => {
+      const m = await one<{ state: string; attempts: number; text_body: string; html_body: string }>(
+        sql`SELECT state, attempts, text_body, html_body FROM mail_outbox WHERE to_address = ${invitee}`,
+      );
+      return m.state === "sent" ? m : null;
+    }, 10_000);
     expect(after.attempts).toBeGreaterThanOrEqual(2);
     // The delivered invitation link is not kept in the database.
     expect(after.text_body + after.html_body).toBe("");

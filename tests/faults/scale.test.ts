@@ -99,6 +99,23 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
     const target = await uploadLog(onA, "load-target.csv", benchCsvText(5_000, 999));
     expect((await settledRun(onA, target.runId, 60_000)).status).toBe("ready");
 
+    // The baseline, measured in the same run: the same reads one at a time on an idle stack.
+    const pagePath = `/runs/${target.runId}`;
+    const seriesPath = `/api/runs/${target.runId}/series?fields=rssiDbm,lqPct,voltageV&points=2000`;
+    const timedRead = async (client: Client, path: string) => {
+      const s = performance.now();
+      const res = await client.get(path);
+      await res.arrayBuffer();
+      expect(res.status).toBe(200);
+      return performance.now() - s;
+    };
+    const idlePage: number[] = [];
+    const idleSeries: number[] = [];
+    for (let i = 0; i < 20; i++) {
+      idlePage.push(await timedRead(i % 2 ? onB : onA, pagePath));
+      idleSeries.push(await timedRead(i % 2 ? onB : onA, seriesPath));
+    }
+
     const logs = Array.from({ length: scale.ingests }, (_, i) => ({ name: `load-${i}.csv`, body: benchCsvText(scale.rowsPerLog, 1_000 + i) }));
     const t0 = Date.now();
     const uploads = Promise.all(logs.map((l, i) => uploadLog(i % 2 ? onB : onA, l.name, l.body)));
@@ -113,7 +130,7 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
         Array.from({ length: scale.reads }, async (_, i) => {
           const client = i % 2 ? onB : onA;
           const page = i % 4 < 2;
-          const path = page ? `/runs/${target.runId}` : `/api/runs/${target.runId}/series?fields=rssiDbm,lqPct,voltageV&points=2000`;
+          const path = page ? pagePath : seriesPath;
           const s = performance.now();
           const res = await client.get(path);
           await res.arrayBuffer();
@@ -141,7 +158,8 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
     expect(byA + byB).toBe(scale.ingests);
 
     const sorted = [...latencies].sort((x, y) => x - y);
-    const p95 = (xs: number[]) => Math.round(quantileSorted([...xs].sort((x, y) => x - y), 0.95));
+    const q = (xs: number[], p: number) => quantileSorted([...xs].sort((x, y) => x - y), p);
+    const p95 = (xs: number[]) => Math.round(q(xs, 0.95));
     report("load", {
       ingests: scale.ingests,
       rowsPerLog: scale.rowsPerLog,
@@ -152,6 +170,11 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
       readMaxMs: Math.round(sorted[sorted.length - 1]),
       pageP95Ms: p95(pageMs),
       seriesP95Ms: p95(seriesMs),
+      idlePageMedianMs: Math.round(q(idlePage, 0.5)),
+      idleSeriesMedianMs: Math.round(q(idleSeries, 0.5)),
+      // How much slower a read is at the 95th percentile of the burst than alone on an idle stack.
+      pageP95OverIdle: Number((q(pageMs, 0.95) / q(idlePage, 0.5)).toFixed(1)),
+      seriesP95OverIdle: Number((q(seriesMs, 0.95) / q(idleSeries, 0.5)).toFixed(1)),
       ingestWallS: Number(ingestWallS.toFixed(1)),
       jobsReadByA: byA,
       jobsReadByB: byB,

@@ -275,4 +275,34 @@ describe("durable ingest queue (a reader that died)", () => {
     expect((await c.post(`/api/runs/${up.runId}/reparse`, {})).status).toBe(200);
     expect((await settledRun(c, up.runId)).status).toBe("ready");
   });
+
+  it("gives a run marked in progress whose job already settled a new job", async () => {
+    const lead = await newLead("reconcile");
+    const c = new Client();
+    expect(await c.signIn(lead.email, testPassword)).toBeNull();
+    const up = await uploadLog(c, "reconcile.csv", csv.replace("HOLD", "HOLD5"));
+    const first = await settledRun(c, up.runId);
+    // As a status write that landed while the job write was lost in an outage would leave it.
+    await db().execute(sql`UPDATE runs SET status = 'queued' WHERE id = ${up.runId}`);
+    await db().execute(sql`UPDATE ingest_jobs SET state = 'done', updated_at = NOW(3) - INTERVAL 1 MINUTE WHERE run_id = ${up.runId}`);
+    // Reconciliation runs every 15 s on each instance.
+    const run = await settledRun(c, up.runId, 40_000);
+    expect(run.status).toBe("ready");
+    expect(run.sampleCount).toBe(first.sampleCount);
+  }, 60_000);
+
+  it("lets a reader that does not hold the claim change nothing", async () => {
+    const lead = await newLead("lost-claim");
+    const c = new Client();
+    expect(await c.signIn(lead.email, testPassword)).toBeNull();
+    const up = await uploadLog(c, "lost-claim.csv", csv.replace("HOLD", "HOLD6"));
+    const first = await settledRun(c, up.runId);
+    const { ingestRun } = await import("@/lib/ingest/ingest-run");
+    expect(await ingestRun(up.runId, { token: "someone-else#000000" })).toEqual({ kind: "lost" });
+    const after = await settledRun(c, up.runId);
+    expect(after.status).toBe("ready");
+    expect(after.sampleCount).toBe(first.sampleCount);
+    const [rows] = await db().execute(sql`SELECT COUNT(*) AS n FROM samples WHERE run_id = ${up.runId}`);
+    expect(Number((rows as unknown as { n: number }[])[0].n)).toBe(first.sampleCount);
+  });
 });

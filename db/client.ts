@@ -38,3 +38,22 @@ export async function closeDb(): Promise<void> {
 }
 
 export { schema };
+
+/**
+ * Runs `fn` in a transaction on one pooled connection (for raw statements such as
+ * SELECT … FOR UPDATE SKIP LOCKED): committed when it returns, rolled back when it throws.
+ */
+export async function inConnectionTransaction<T>(fn: (conn: mysql.PoolConnection) => Promise<T>): Promise<T> {
+  const conn = await pool().getConnection();
+  try {
+    await conn.beginTransaction();
+    const out = await fn(conn);
+    await conn.commit();
+    return out;
+  } catch (e) {
+    await conn.rollback().catch(() => {});
+    throw e;
+  } finally {
+    conn.release();
+  }
+}

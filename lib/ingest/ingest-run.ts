@@ -45,7 +45,6 @@ function eventRow(runId: number, e: AnalysisEvent) {
 /** What a person reads when a log cannot be stored; internals stay in the server log. */
 export function describeFailure(e: unknown): string {
   if (e instanceof ParseError) return e.describe();
-  const msg = (e as Error)?.message ?? String(e);
   console.error("[ingest] unexpected failure", e);
   if (isPassingFault(e)) return "A storage service stopped answering while the log was read; re-parse it to try again";
   return "The log could not be processed because of an error on our side; re-parse it to try again";

@@ -1,7 +1,7 @@
 import { randomBytes } from "node:crypto";
 import { and, eq, inArray, sql, type SQL } from "drizzle-orm";
 import type { PoolConnection } from "mysql2/promise";
-import { db, pool } from "@/db/client";
+import { db, inConnectionTransaction } from "@/db/client";
 import { ingestJobs, runs } from "@/db/schema";
 
 /**
@@ -34,27 +34,16 @@ export async function enqueueIngestJob(runId: number): Promise<void> {
 
 /** Takes the oldest due job no other instance holds; SKIP LOCKED lets instances claim side by side without waiting on each other. */
 export async function claimIngestJob(owner: string): Promise<ClaimedJob | null> {
-  const conn = await pool().getConnection();
-  try {
-    await conn.beginTransaction();
+  return inConnectionTransaction(async (conn) => {
     const [rows] = await conn.query(
       "SELECT id, run_id, attempts, retries FROM ingest_jobs WHERE state = 'queued' AND available_at <= NOW(3) ORDER BY available_at, id LIMIT 1 FOR UPDATE SKIP LOCKED",
     );
     const row = (rows as { id: number; run_id: number; attempts: number; retries: number }[])[0];
-    if (!row) {
-      await conn.commit();
-      return null;
-    }
+    if (!row) return null;
     const token = `${owner}#${randomBytes(3).toString("hex")}`;
     await conn.query("UPDATE ingest_jobs SET state = 'running', claimed_by = ?, heartbeat_at = NOW(3), attempts = attempts + 1, updated_at = NOW(3) WHERE id = ?", [token, row.id]);
-    await conn.commit();
     return { id: Number(row.id), runId: Number(row.run_id), attempt: row.attempts + 1, retries: row.retries, token };
-  } catch (e) {
-    await conn.rollback().catch(() => {});
-    throw e;
-  } finally {
-    conn.release();
-  }
+  });
 }
 
 /** SQL that is true while `token` still holds the run's job (for guarded writes to the run row). */
@@ -122,31 +111,23 @@ export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: num
   const notMine = liveTokens.length ? sql`AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (${sql.join(liveTokens.map((t) => sql`${t}`), sql`, `)}))` : sql``;
   const stale = sql`j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND ${notMine}`;
 
-  let failed = 0;
-  const conn = await pool().getConnection();
-  try {
-    await conn.beginTransaction();
+  const failed = await inConnectionTransaction(async (conn) => {
     const [rows] = await conn.query(
       `SELECT j.run_id FROM ingest_jobs j WHERE j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ? SECOND
        ${liveTokens.length ? "AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (?))" : ""} AND j.attempts >= ? FOR UPDATE SKIP LOCKED`,
       liveTokens.length ? [staleAfterS, liveTokens, maxAttempts] : [staleAfterS, maxAttempts],
     );
-    for (const { run_id: runId } of rows as { run_id: number }[]) {
+    const gaveUp = rows as { run_id: number }[];
+    for (const { run_id: runId } of gaveUp) {
       // As after any failure: no samples, events or display levels of an earlier parse stay behind.
       await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
       await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
       await conn.query("DELETE FROM series_levels WHERE run_id = ?", [runId]);
       await conn.query("UPDATE ingest_jobs SET state = 'failed', last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?", [runId]);
       await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id = ?", [GAVE_UP(maxAttempts), runId]);
-      failed++;
     }
-    await conn.commit();
-  } catch (e) {
-    await conn.rollback().catch(() => {});
-    throw e;
-  } finally {
-    conn.release();
-  }
+    return gaveUp.length;
+  });
   const [requeued] = await db().execute(sql`
     UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
     SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.last_error = 'stale', j.updated_at = NOW(3), r.status = 'queued', r.progress = 0

@@ -1,5 +1,5 @@
 import { and, eq, sql } from "drizzle-orm";
-import { db, pool, type Database } from "@/db/client";
+import { db, inConnectionTransaction, type Database } from "@/db/client";
 import { mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
 import { deliverMail, type Mail } from "./transport";
@@ -41,9 +41,7 @@ export function mailRetryDelayS(attempts: number, baseS: number): number {
  * is still the current one, so a send that outlived its lease cannot overwrite a newer one.
  */
 async function leaseNext(): Promise<{ id: number; attempts: number } | null> {
-  const conn = await pool().getConnection();
-  try {
-    await conn.beginTransaction();
+  return inConnectionTransaction(async (conn) => {
     const [rows] = await conn.query(
       "SELECT id, attempts FROM mail_outbox WHERE state = 'pending' AND next_attempt_at <= NOW(3) ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED",
     );
@@ -51,14 +49,8 @@ async function leaseNext(): Promise<{ id: number; attempts: number } | null> {
     if (row) {
       await conn.query(`UPDATE mail_outbox SET attempts = attempts + 1, next_attempt_at = NOW(3) + INTERVAL ${SEND_LEASE_S} SECOND WHERE id = ?`, [row.id]);
     }
-    await conn.commit();
     return row ? { id: Number(row.id), attempts: row.attempts + 1 } : null;
-  } catch (e) {
-    await conn.rollback().catch(() => {});
-    throw e;
-  } finally {
-    conn.release();
-  }
+  });
 }
 
 /** Sends what is due, one message at a time; returns how many went out. Run by the background worker. */

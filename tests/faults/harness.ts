@@ -7,6 +7,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { closeDb } from "@/db/client";
+import { benchCsvText } from "@/scripts/bench/make-csv";
 import { runMigrations } from "@/db/migrate";
 import { startApp, type AppServer } from "@/scripts/lib/app-server";
 import { startMailCatcher } from "@/scripts/lib/mail-catcher";
@@ -97,6 +98,17 @@ export function report(name: string, figures: Record<string, unknown>): void {
   fs.mkdirSync(dir, { recursive: true });
   fs.writeFileSync(path.join(dir, `${name}.json`), JSON.stringify({ soak, ...figures }, null, 2));
   console.log(`[${name}] ${JSON.stringify(figures)}`);
+}
+
+/**
+ * Builds a test log without starving this process's sockets: generating a large one blocks the
+ * event loop for seconds, long enough for the app to close idle keep-alive connections, and a
+ * request sent before the loop has seen those closes fails with "other side closed".
+ */
+export async function makeLog(rows: number, seed: number): Promise<string> {
+  const body = benchCsvText(rows, seed);
+  await new Promise((r) => setTimeout(r, 20));
+  return body;
 }
 
 export async function waitUntil<T>(what: string, f: () => Promise<T | null | undefined | false>, timeoutMs: number, everyMs = 100): Promise<T> {

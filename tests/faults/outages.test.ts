@@ -15,13 +15,12 @@ import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import type { AppServer } from "@/scripts/lib/app-server";
-import { benchCsvText } from "@/scripts/bench/make-csv";
 import { readObject } from "@/lib/storage/objects";
 import { Client } from "../helpers/http";
 import { waitForMail } from "../helpers/inbox";
 import { newLead, testPassword, uniqueEmail } from "../helpers/people";
 import { settledRun, uploadLog, type RunJson } from "../helpers/uploads";
-import { FaultStack, faults, report, scale, waitUntil } from "./harness";
+import { FaultStack, faults, makeLog, report, scale, waitUntil } from "./harness";
 
 let stack: FaultStack;
 let app: AppServer;
@@ -37,7 +36,7 @@ beforeAll(async () => {
   lead = await newLead("outages");
   c = new Client(undefined, app.url);
   expect(await c.signIn(lead.email, testPassword)).toBeNull();
-  const up = await uploadLog(c, "outage-baseline.csv", benchCsvText(3_000, 21));
+  const up = await uploadLog(c, "outage-baseline.csv", await makeLog(3_000, 21));
   readyRunId = (await settledRun(c, up.runId, 60_000)).id;
 }, 180_000);
 
@@ -67,7 +66,7 @@ async function sha256OfStored(objectKey: string): Promise<string> {
 describe("the app server killed in the middle of an ingest", () => {
   it("shows no partial samples, keeps the original, and reads the run again after the restart", async () => {
     const rows = scale.crashRows;
-    const body = benchCsvText(rows, 31);
+    const body = await makeLog(rows, 31);
     const up = await uploadLog(c, "killed-mid-read.csv", body);
     // Wait until the log is being read and part of it has gone into the (uncommitted) load.
     await waitUntil("the ingest to be under way", async () => {
@@ -147,7 +146,7 @@ async function whileDatabaseDown(inFlight: Promise<Response>[]): Promise<void> {
 describe("the object store stopped", () => {
   it("answers 503 where a file is needed, holds queued reads until it is back, and loses nothing", async () => {
     // An upload whose bytes reached the store before it went away.
-    const body = benchCsvText(2_000, 41);
+    const body = await makeLog(2_000, 41);
     const created = await c.post("/api/uploads", { fileName: "store-outage.csv", size: Buffer.byteLength(body), contentType: "text/csv" });
     expect(created.status).toBe(201);
     const { uploadId, putUrl, contentType } = (await created.json()) as { uploadId: number; putUrl: string; contentType: string };

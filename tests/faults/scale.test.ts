@@ -18,11 +18,10 @@ import { quantileSorted } from "simple-statistics";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import type { AppServer } from "@/scripts/lib/app-server";
-import { benchCsvText } from "@/scripts/bench/make-csv";
 import { Client } from "../helpers/http";
 import { newLead, testPassword } from "../helpers/people";
 import { settledRun, uploadLog } from "../helpers/uploads";
-import { FaultStack, faults, report, scale } from "./harness";
+import { FaultStack, faults, makeLog, report, scale } from "./harness";
 
 let stack: FaultStack;
 let a: AppServer;
@@ -63,7 +62,7 @@ describe("two app instances, one database and one store", () => {
     expect(((await me.json()) as { user: { email: string } }).user.email).toBe(lead.email);
 
     const rows = 2_000;
-    const up = await uploadLog(onB, "two-instances.csv", benchCsvText(rows, 11));
+    const up = await uploadLog(onB, "two-instances.csv", await makeLog(rows, 11));
     const run = await settledRun(onA, up.runId, 60_000);
     expect(run.status).toBe("ready");
     expect(run.sampleCount).toBe(rows);
@@ -96,7 +95,7 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
     const onB = onA.withBase(b.url);
 
     // One run to read while the others are being ingested.
-    const target = await uploadLog(onA, "load-target.csv", benchCsvText(5_000, 999));
+    const target = await uploadLog(onA, "load-target.csv", await makeLog(5_000, 999));
     expect((await settledRun(onA, target.runId, 60_000)).status).toBe("ready");
 
     // The baseline, measured in the same run: the same reads one at a time on an idle stack.
@@ -116,7 +115,8 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
       idleSeries.push(await timedRead(i % 2 ? onB : onA, seriesPath));
     }
 
-    const logs = Array.from({ length: scale.ingests }, (_, i) => ({ name: `load-${i}.csv`, body: benchCsvText(scale.rowsPerLog, 1_000 + i) }));
+    const logs: { name: string; body: string }[] = [];
+    for (let i = 0; i < scale.ingests; i++) logs.push({ name: `load-${i}.csv`, body: await makeLog(scale.rowsPerLog, 1_000 + i) });
     const t0 = Date.now();
     const uploads = Promise.all(logs.map((l, i) => uploadLog(i % 2 ? onB : onA, l.name, l.body)));
 

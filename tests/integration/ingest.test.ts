@@ -234,14 +234,21 @@ describe("multipart upload", () => {
 });
 
 describe("durable ingest queue (a reader that died)", () => {
+  /** A fresh crew with one ready run of the shared CSV, made distinct by its mode text. */
+  async function readyRun(label: string, mode: string) {
+    const lead = await newLead(label);
+    const c = new Client();
+    expect(await c.signIn(lead.email, testPassword)).toBeNull();
+    const up = await uploadLog(c, `${label}.csv`, csv.replace("HOLD", mode));
+    const first = await settledRun(c, up.runId);
+    expect(first.status).toBe("ready");
+    return { c, up, first };
+  }
+
   // The claim/heartbeat/sweep scheme is common practice for database-backed job queues; the
   // app server's worker sweeps every 2 s and treats a heartbeat older than INGEST_STALE_AFTER_S as dead.
   it("queues a job whose holder stopped sending heartbeats again, and the run becomes ready", async () => {
-    const lead = await newLead("dead-reader");
-    const c = new Client();
-    expect(await c.signIn(lead.email, testPassword)).toBeNull();
-    const up = await uploadLog(c, "dead-reader.csv", csv.replace("HOLD", "HOLD3"));
-    const first = await settledRun(c, up.runId);
+    const { c, up, first } = await readyRun("dead-reader", "HOLD3");
     expect(first.status).toBe("ready");
     // As a process that claimed the job and then died would leave it (its transaction rolled back).
     await db().execute(sql`UPDATE runs SET status = 'parsing', progress = 0.4 WHERE id = ${up.runId}`);
@@ -259,11 +266,7 @@ describe("durable ingest queue (a reader that died)", () => {
   });
 
   it("fails the run with a re-parse hint once the job has used its attempts", async () => {
-    const lead = await newLead("dead-thrice");
-    const c = new Client();
-    expect(await c.signIn(lead.email, testPassword)).toBeNull();
-    const up = await uploadLog(c, "dead-thrice.csv", csv.replace("HOLD", "HOLD4"));
-    await settledRun(c, up.runId);
+    const { c, up } = await readyRun("dead-thrice", "HOLD4");
     await db().execute(sql`UPDATE runs SET status = 'parsing' WHERE id = ${up.runId}`);
     await db().execute(
       sql`UPDATE ingest_jobs SET state = 'running', attempts = 3, claimed_by = 'gone:2:dead', heartbeat_at = NOW(3) - INTERVAL 1 HOUR WHERE run_id = ${up.runId}`,
@@ -277,11 +280,7 @@ describe("durable ingest queue (a reader that died)", () => {
   });
 
   it("gives a run marked in progress whose job already settled a new job", async () => {
-    const lead = await newLead("reconcile");
-    const c = new Client();
-    expect(await c.signIn(lead.email, testPassword)).toBeNull();
-    const up = await uploadLog(c, "reconcile.csv", csv.replace("HOLD", "HOLD5"));
-    const first = await settledRun(c, up.runId);
+    const { c, up, first } = await readyRun("reconcile", "HOLD5");
     // As a status write that landed while the job write was lost in an outage would leave it.
     await db().execute(sql`UPDATE runs SET status = 'queued' WHERE id = ${up.runId}`);
     await db().execute(sql`UPDATE ingest_jobs SET state = 'done', updated_at = NOW(3) - INTERVAL 1 MINUTE WHERE run_id = ${up.runId}`);
@@ -292,11 +291,7 @@ describe("durable ingest queue (a reader that died)", () => {
   }, 60_000);
 
   it("lets a reader that does not hold the claim change nothing", async () => {
-    const lead = await newLead("lost-claim");
-    const c = new Client();
-    expect(await c.signIn(lead.email, testPassword)).toBeNull();
-    const up = await uploadLog(c, "lost-claim.csv", csv.replace("HOLD", "HOLD6"));
-    const first = await settledRun(c, up.runId);
+    const { c, up, first } = await readyRun("lost-claim", "HOLD6");
     const { ingestRun } = await import("@/lib/ingest/ingest-run");
     expect(await ingestRun(up.runId, { token: "someone-else#000000" })).toEqual({ kind: "lost" });
     const after = await settledRun(c, up.runId);

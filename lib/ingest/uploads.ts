@@ -33,13 +33,17 @@ export async function createUpload(actor: Actor, crewId: number, input: Omit<Upl
       fields: { size: [`At most ${megabytes(max)}`] },
     });
   }
-  // Build and route plan must be the caller's crew's own; another crew's id is just "not found".
   // Build and route plan must belong to the upload's crew; anything else is just "not found".
   const sameCrew = async <T extends { crewId: number }>(load: () => Promise<T | null>, what: string) => {
     const { record } = await requireRecordPermission(actor, load, "read", what);
     if (record.crewId !== crewId) throw new NotFoundError(what);
+    return record;
   };
-  if (input.buildId) await sameCrew(() => getBuild(input.buildId!), "Build");
+  if (input.buildId) {
+    const build = await sameCrew(() => getBuild(input.buildId!), "Build");
+    // As when moving a run: new evidence goes to builds in service (the form only offers those).
+    if (build.retiredAt) throw new ValidationError("That build is retired; bring it back first", { fields: { buildId: ["Choose a build in service"] } });
+  }
   if (input.routePlanId) await sameCrew(() => getRoutePlan(input.routePlanId!), "Route plan");
   const objectKey = uploadObjectKey(crewId, input.fileName);
   const contentType = input.contentType || "application/octet-stream";

@@ -16,6 +16,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import type { AppServer } from "@/scripts/lib/app-server";
 import { readObject } from "@/lib/storage/objects";
+import { launchBrowser, screenshotPath } from "../helpers/browser";
 import { Client } from "../helpers/http";
 import { waitForMail } from "../helpers/inbox";
 import { newLead, testPassword, uniqueEmail } from "../helpers/people";
@@ -55,6 +56,20 @@ async function runJson(client: Client, runId: number): Promise<RunJson> {
   const res = await client.get(`/api/runs/${runId}`);
   expect(res.status).toBe(200);
   return ((await res.json()) as { run: RunJson }).run;
+}
+
+/** Opens `path` in Chromium with the signed-in session, checks `text` is on screen, and keeps a screenshot. */
+async function lookAt(path: string, name: string, text: string | RegExp): Promise<void> {
+  const { browser, close } = await launchBrowser();
+  try {
+    await browser.addCookies(c.cookieList().map((k) => ({ ...k, url: app.url })));
+    const page = await browser.newPage();
+    await page.goto(`${app.url}${path}`);
+    await page.getByText(text).first().waitFor({ timeout: 15_000 });
+    await page.screenshot({ path: screenshotPath(name), fullPage: true });
+  } finally {
+    await close();
+  }
 }
 
 async function sha256OfStored(objectKey: string): Promise<string> {
@@ -141,6 +156,7 @@ async function whileDatabaseDown(inFlight: Promise<Response>[]): Promise<void> {
   expect(JSON.parse(apiBody).error.code).toBe("unavailable");
   expect(apiBody).not.toMatch(STACK_TRACE);
   expect((await c.get("/api/health")).status).toBe(503);
+  await lookAt("/dashboard", "fault-database-down", "cannot reach its database");
 }
 
 describe("the object store stopped", () => {
@@ -185,6 +201,8 @@ async function whileStoreDown(uploadId: number): Promise<void> {
     return r.status === "queued" && r.error && /trying again/.test(r.error) ? r : null;
   }, 30_000, 200);
   expect(waiting.error).toMatch(/storage service stopped answering/);
+  // What the crew sees on the run page meanwhile: the wait and its reason, not a failure.
+  await lookAt(`/runs/${readyRunId}`, "fault-run-waiting-for-storage", /trying again shortly/);
 }
 
 describe("the mail server stopped", () => {

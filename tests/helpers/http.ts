@@ -16,6 +16,11 @@ export class Client {
     return other;
   }
 
+  /** The jar's cookies, e.g. to hand a signed-in session to a browser. */
+  cookieList(): { name: string; value: string }[] {
+    return [...this.cookies].map(([name, value]) => ({ name, value }));
+  }
+
   private cookieHeader(): string | undefined {
     if (this.cookies.size === 0) return undefined;
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join("; ");

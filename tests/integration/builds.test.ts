@@ -180,6 +180,10 @@ describe("builds API", () => {
     expect(r.retiredAt).not.toBeNull();
     const list = await json<{ builds: { id: number }[] }>(await c.get(`/api/builds?crewId=${lead.crewId}`), 200);
     expect(list.builds.map((b) => b.id)).not.toContain(id);
+    // No new log can be filed under a retired build through the API either.
+    const refused = await c.post("/api/uploads", { fileName: "late.csv", size: 10, contentType: "text/csv", buildId: id });
+    expect(refused.status).toBe(422);
+    expect((await refused.json()).error.details.fields.buildId).toEqual(["Choose a build in service"]);
     expect((await json<{ retiredAt: string | null }>(await c.post(`/api/builds/${id}/retire`, { retired: false }), 200)).retiredAt).toBeNull();
     const { changes } = await json<{ changes: { changes: Record<string, unknown> }[] }>(await c.get(`/api/builds/${id}/history`), 200);
     expect(changes.map((x) => x.changes)).toEqual([{ retired: { from: true, to: false } }, { retired: { from: false, to: true } }]);

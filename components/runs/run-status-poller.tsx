@@ -26,7 +26,11 @@ export function RunStatusPoller({ runId, status, progress, error }: { runId: num
   if (!active) return null;
   return (
     <div className="panel mb-6">
-      <ProgressBar label={live.status === "queued" ? "Waiting for its turn" : "Reading the log"} value={live.progress} tone="signal" />
+      <ProgressBar
+        label={live.status !== "queued" ? "Reading the log" : live.error ? "Waiting to try again" : "Waiting for its turn"}
+        value={live.progress}
+        tone="signal"
+      />
       {/* A queued run with an error is waiting out a passing fault (lib/jobs/worker.ts). */}
       {live.status === "queued" && live.error && (
         <p className="mt-2 text-sm text-ink-soft" role="status">

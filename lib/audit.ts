@@ -12,9 +12,9 @@ export interface AuditInput {
 }
 
 /** Appends one audit entry. Never throws: a failed audit write must not undo the action it records. */
-export async function audit(entry: AuditInput, dbx: Database = db()): Promise<void> {
+export async function audit(entry: AuditInput, dbx?: Database): Promise<void> {
   try {
-    await dbx.insert(auditLog).values({
+    await (dbx ?? db()).insert(auditLog).values({
       crewId: entry.crewId ?? null,
       actorId: entry.actorId ?? null,
       action: entry.action,
@@ -24,6 +24,8 @@ export async function audit(entry: AuditInput, dbx: Database = db()): Promise<vo
       ip: entry.ip?.slice(0, 64) ?? null,
     });
   } catch (e) {
+    // Inside a caller's transaction a failed write may have ended the transaction: the caller decides.
+    if (dbx) throw e;
     console.error(`[audit] could not record ${entry.action}: ${(e as Error).message}`);
   }
 }

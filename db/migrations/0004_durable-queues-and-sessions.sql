@@ -43,4 +43,5 @@ ALTER TABLE `users` ADD `sessions_valid_after` datetime(3);--> statement-breakpo
 ALTER TABLE `revoked_sessions` ADD CONSTRAINT `revoked_sessions_user_id_users_id_fk` FOREIGN KEY (`user_id`) REFERENCES `users`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `ingest_jobs` ADD CONSTRAINT `ingest_jobs_run_id_runs_id_fk` FOREIGN KEY (`run_id`) REFERENCES `runs`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 CREATE INDEX `ingest_jobs_state_available_idx` ON `ingest_jobs` (`state`,`available_at`);--> statement-breakpoint
-CREATE INDEX `mail_outbox_state_next_idx` ON `mail_outbox` (`state`,`next_attempt_at`);
+CREATE INDEX `mail_outbox_state_next_idx` ON `mail_outbox` (`state`,`next_attempt_at`);--> statement-breakpoint
+CREATE INDEX `runs_status_idx` ON `runs` (`status`);

@@ -57,6 +57,8 @@ export const runs = mysqlTable(
     index("runs_crew_created_idx").on(t.crewId, t.createdAt),
     index("runs_crew_build_idx").on(t.crewId, t.buildId),
     index("runs_crew_verdict_idx").on(t.crewId, t.verdict),
+    // The queue's reconcile pass looks for runs still marked in progress (lib/jobs/ingest-jobs.ts).
+    index("runs_status_idx").on(t.status),
     // One run per upload: a second "complete" of the same upload can never make another.
     uniqueIndex("runs_upload_uq").on(t.uploadId),
   ],

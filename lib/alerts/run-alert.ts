@@ -10,14 +10,15 @@
  *     found no recipient, or every send failed); otherwise this re-parse repeats an outcome the
  *     leads already know about.
  * A send to a lead that fails is logged and skipped; the entry is written when at least one mail
- * went out. The worker runs this after the analysis committed and before it marks the job done, so
- * a crash in between repeats the decision when the job is read again; mail itself goes through the
- * outbox, so an SMTP outage only delays it. Nothing here can fail the ingest.
+ * went out. The ingest runs this inside its own transaction, so the decision, its audit entry and
+ * its queued mail commit with the new figures or not at all; mail itself goes through the outbox,
+ * so an SMTP outage only delays it.
  */
 import { and, eq } from "drizzle-orm";
 import { db, type Database } from "@/db/client";
 import { auditLog, builds, crews, memberships, runs, users, type VerdictLevel } from "@/db/schema";
 import type { RunSummary } from "@/components/debrief/figure-list";
+import { isDatabaseDown } from "@/lib/api/database-down";
 import { audit } from "@/lib/audit";
 import { env } from "@/lib/env";
 import { runAlertMail } from "@/lib/mail/run-alert-mail";
@@ -38,8 +39,24 @@ export async function alertAfterAnalysis(runId: number, previousVerdict: Verdict
   try {
     await sendRunAlert(runId, previousVerdict, dbx);
   } catch (e) {
+    // A deadlock, lock timeout or lost connection has ended the ingest transaction itself: the
+    // ingest must see it (and retry), not commit what is left as if the alert were the only loss.
+    if (endsTransaction(e)) throw e;
     console.error(`[alerts] run ${runId}: ${(e as Error).message}`);
   }
+}
+
+function endsTransaction(e: unknown): boolean {
+  return /^(ER_LOCK_DEADLOCK|ER_LOCK_WAIT_TIMEOUT)$/.test(String(codeOf(e))) || isDatabaseDown(e);
+}
+
+function codeOf(e: unknown): string | undefined {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: string }).code;
+    if (code) return code;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return undefined;
 }
 
 async function alreadyAlerted(runId: number, dbx: Database): Promise<boolean> {
@@ -97,12 +114,13 @@ export async function sendRunAlert(runId: number, previousVerdict: VerdictLevel 
       await queueMail(mail, "run-alert", dbx);
       sentTo.push(lead.id);
     } catch (e) {
+      if (endsTransaction(e)) throw e;
       failed++;
       console.error(`[alerts] mail about run ${run.id} to user ${lead.id} failed: ${(e as Error).message}`);
     }
   }
   if (sentTo.length) {
-    await audit({ crewId: run.crewId, action: ALERT_ACTION, targetType: "run", targetId: run.id, detail: { verdict: "act", reasons, recipients: sentTo, previousVerdict } }, dbx);
+    await audit({ crewId: run.crewId, action: ALERT_ACTION, targetType: "run", targetId: run.id, detail: { verdict: "act", reasons, recipients: sentTo, previousVerdict } }, dbx === db() ? undefined : dbx);
   }
   return { sent: sentTo.length, failed, recipients: sentTo };
 }

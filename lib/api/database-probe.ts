@@ -27,15 +27,22 @@ function probePool(s: ProbeState): mysql.Pool {
 
 async function probe(s: ProbeState): Promise<boolean> {
   let timer: NodeJS.Timeout | undefined;
-  const timeout = new Promise<boolean>((resolve) => (timer = setTimeout(() => resolve(false), PROBE_TIMEOUT_MS)));
+  const timeout = new Promise<"timeout">((resolve) => (timer = setTimeout(() => resolve("timeout"), PROBE_TIMEOUT_MS)));
   const ping = probePool(s)
     .query("SELECT 1")
     .then(
       () => true,
-      (e: unknown) => !isDatabaseDown(e),
+      // A fatal error is a dead connection even when it carries no code ("connection is in closed state").
+      (e: unknown) => !(isDatabaseDown(e) || (e as { fatal?: boolean }).fatal),
     );
   try {
-    return await Promise.race([ping, timeout]);
+    const answer = await Promise.race([ping, timeout]);
+    if (answer !== "timeout") return answer;
+    // A hung query holds the only connection: start over, or every later probe would queue behind it.
+    const stale = s.pool;
+    s.pool = null;
+    stale?.end().catch(() => {});
+    return false;
   } finally {
     clearTimeout(timer);
   }

@@ -1,12 +1,12 @@
 import { and, eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
 import type { PoolConnection } from "mysql2/promise";
-import { db, pool, schema } from "@/db/client";
+import { db, inConnectionTransaction, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
 import { events, runs, type RunWarning } from "@/db/schema";
 import { alertAfterAnalysis } from "@/lib/alerts/run-alert";
 import { isDatabaseDown } from "@/lib/api/database-down";
-import { holdsClaim, settleIngestJobInTransaction } from "@/lib/jobs/ingest-jobs";
+import { holdsClaim, holdsJobRow, settleIngestJobInTransaction } from "@/lib/jobs/ingest-jobs";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { SeriesCollector } from "@/lib/analysis/series-collector";
 import type { AnalysisEvent } from "@/lib/analysis/types";
@@ -87,8 +87,8 @@ function errorCode(e: unknown): string | undefined {
 function isPassingFault(e: unknown): boolean {
   if (e instanceof ParseError) return false;
   if (e instanceof ServiceUnavailableError || isDatabaseDown(e)) return true;
-  const msg = `${(e as Error)?.name ?? ""} ${(e as Error)?.message ?? ""} ${(e as { code?: string })?.code ?? ""}`;
-  return /ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|socket hang up|TimeoutError|ServiceUnavailable|SlowDown|InternalError/.test(msg);
+  const msg = `${(e as Error)?.name ?? ""} ${(e as Error)?.message ?? ""} ${errorCode(e) ?? ""}`;
+  return /ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|ER_LOCK_WAIT_TIMEOUT|socket hang up|TimeoutError|ServiceUnavailable|SlowDown|InternalError/.test(msg);
 }
 
 /**
@@ -104,7 +104,8 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     row = await getRunWithUpload(runId);
   } catch (e) {
     // The database went away between the claim and here: the job waits, the run is untouched.
-    return { kind: "retry", error: describeFailure(e) };
+    if (isPassingFault(e) && opts.mayRetry !== false) return { kind: "retry", error: describeFailure(e) };
+    return { kind: "failed", error: describeFailure(e) };
   }
   if (!row) return { kind: "failed", error: "run not found" };
   if (!(await stillHeld().catch(() => true))) return { kind: "lost" };
@@ -138,7 +139,8 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
     const collector = new SeriesCollector();
     // READ COMMITTED: the deletes below then take no gap locks, so two runs loading side by side
     // cannot deadlock on the neighbouring key ranges of the samples table.
-    await conn.query("SET SESSION TRANSACTION ISOLATION LEVEL READ COMMITTED");
+    // SET TRANSACTION (not SESSION): only this transaction; the pooled connection goes back as it came.
+    await conn.query("SET TRANSACTION ISOLATION LEVEL READ COMMITTED");
     await conn.beginTransaction();
     await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
     await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
@@ -216,17 +218,18 @@ export async function ingestRun(runId: number, opts: IngestOptions = {}, attempt
       await db().update(runs).set({ status: "queued", progress: 0, error }).where(thisRun).catch(() => {});
       return { kind: "retry", error };
     }
-    // A failed run has no samples, also when a re-parse fails after an earlier good parse.
-    await conn?.query("DELETE FROM samples WHERE run_id = ?", [runId]).catch(() => {});
-    await conn?.query("DELETE FROM events WHERE run_id = ?", [runId]).catch(() => {});
-    if (conn) await deleteSeriesLevels(conn, runId).catch(() => {});
     const error = describeFailure(e);
-    await db()
-      .update(runs)
-      .set({ status: "failed", progress: 0, error, sampleCount: 0 })
-      .where(thisRun)
-      .catch(() => {});
-    return { kind: "failed", error };
+    // A failed run has no samples, also when a re-parse fails after an earlier good parse. One
+    // transaction that first locks the job: if another reader holds it now, its work is left alone.
+    const settled = await inConnectionTransaction(async (c) => {
+      if (opts.token && !(await holdsJobRow(c, runId, opts.token))) return false;
+      await c.query("DELETE FROM samples WHERE run_id = ?", [runId]);
+      await c.query("DELETE FROM events WHERE run_id = ?", [runId]);
+      await deleteSeriesLevels(c, runId);
+      await c.query("UPDATE runs SET status = 'failed', progress = 0, error = ?, sample_count = 0 WHERE id = ?", [error, runId]);
+      return true;
+    }).catch(() => true);
+    return settled ? { kind: "failed", error } : { kind: "lost" };
   } finally {
     conn?.release();
   }

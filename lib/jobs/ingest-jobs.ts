@@ -60,6 +60,13 @@ export async function heartbeatIngestJob(jobId: number, token: string): Promise<
   return affected(r) > 0;
 }
 
+/** In a transaction: locks the run's job row and says whether `token` holds it. */
+export async function holdsJobRow(conn: PoolConnection, runId: number, token: string): Promise<boolean> {
+  const [rows] = await conn.query("SELECT state, claimed_by FROM ingest_jobs WHERE run_id = ? FOR UPDATE", [runId]);
+  const row = (rows as { state: string; claimed_by: string | null }[])[0];
+  return row?.state === "running" && row.claimed_by === token;
+}
+
 /**
  * Inside the ingest transaction, just before it commits: locks the job row and, if `token` still
  * holds it, marks it done in the same transaction. False when the claim was lost: the caller
@@ -67,9 +74,7 @@ export async function heartbeatIngestJob(jobId: number, token: string): Promise<
  * never followed by a job left "running".
  */
 export async function settleIngestJobInTransaction(conn: PoolConnection, runId: number, token: string): Promise<boolean> {
-  const [rows] = await conn.query("SELECT state, claimed_by FROM ingest_jobs WHERE run_id = ? FOR UPDATE", [runId]);
-  const row = (rows as { state: string; claimed_by: string | null }[])[0];
-  if (row?.state !== "running" || row.claimed_by !== token) return false;
+  if (!(await holdsJobRow(conn, runId, token))) return false;
   await conn.query("UPDATE ingest_jobs SET state = 'done', last_error = NULL, updated_at = NOW(3) WHERE run_id = ?", [runId]);
   return true;
 }
@@ -105,51 +110,72 @@ const inProgress = sql`('queued', 'parsing', 'analysing')`;
 /**
  * Jobs whose holder stopped sending heartbeats (its process died): queued again, or failed once
  * they have used their attempts (a failed run keeps no samples). Claims in `liveTokens` (this
- * process's own readers, alive by definition) are left alone. Safe to run from every instance.
+ * process's own readers, alive by definition) are left alone. Safe to run from every instance:
+ * candidates are found with a plain read, then each is re-checked and changed under its own row
+ * lock (SKIP LOCKED), so the sweep never holds locks on jobs it does not change.
  */
 export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: number, liveTokens: string[]): Promise<{ requeued: number; failed: number }> {
-  const notMine = liveTokens.length ? sql`AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (${sql.join(liveTokens.map((t) => sql`${t}`), sql`, `)}))` : sql``;
-  const stale = sql`j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND ${notMine}`;
-
-  const failed = await inConnectionTransaction(async (conn) => {
-    const [rows] = await conn.query(
-      `SELECT j.run_id FROM ingest_jobs j WHERE j.state = 'running' AND j.heartbeat_at < NOW(3) - INTERVAL ? SECOND
-       ${liveTokens.length ? "AND (j.claimed_by IS NULL OR j.claimed_by NOT IN (?))" : ""} AND j.attempts >= ? FOR UPDATE SKIP LOCKED`,
-      liveTokens.length ? [staleAfterS, liveTokens, maxAttempts] : [staleAfterS, maxAttempts],
-    );
-    const gaveUp = rows as { run_id: number }[];
-    for (const { run_id: runId } of gaveUp) {
+  const [found] = await db().execute(sql`
+    SELECT run_id, claimed_by FROM ${ingestJobs}
+    WHERE state = 'running' AND heartbeat_at < NOW(3) - INTERVAL ${staleAfterS} SECOND`);
+  const candidates = (found as unknown as { run_id: number; claimed_by: string | null }[]).filter((c) => !c.claimed_by || !liveTokens.includes(c.claimed_by));
+  let requeued = 0;
+  let failed = 0;
+  for (const { run_id: runId, claimed_by: token } of candidates) {
+    const outcome = await inConnectionTransaction(async (conn) => {
+      const [rows] = await conn.query(
+        `SELECT attempts FROM ingest_jobs WHERE run_id = ? AND state = 'running' AND claimed_by <=> ? AND heartbeat_at < NOW(3) - INTERVAL ? SECOND
+         FOR UPDATE SKIP LOCKED`,
+        [runId, token, staleAfterS],
+      );
+      const job = (rows as { attempts: number }[])[0];
+      if (!job) return null;
+      if (job.attempts < maxAttempts) {
+        await conn.query(
+          "UPDATE ingest_jobs SET state = 'queued', claimed_by = NULL, heartbeat_at = NULL, available_at = NOW(3), last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?",
+          [runId],
+        );
+        await conn.query("UPDATE runs SET status = 'queued', progress = 0 WHERE id = ?", [runId]);
+        return "requeued" as const;
+      }
+      await conn.query("UPDATE ingest_jobs SET state = 'failed', last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?", [runId]);
+      await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id = ?", [GAVE_UP(maxAttempts), runId]);
       // As after any failure: no samples, events or display levels of an earlier parse stay behind.
       await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
       await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
       await conn.query("DELETE FROM series_levels WHERE run_id = ?", [runId]);
-      await conn.query("UPDATE ingest_jobs SET state = 'failed', last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?", [runId]);
-      await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id = ?", [GAVE_UP(maxAttempts), runId]);
-    }
-    return gaveUp.length;
-  });
-  const [requeued] = await db().execute(sql`
-    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
-    SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.last_error = 'stale', j.updated_at = NOW(3), r.status = 'queued', r.progress = 0
-    WHERE ${stale} AND j.attempts < ${maxAttempts}`);
-  return { requeued: Math.ceil(affected(requeued) / 2), failed };
+      return "failed" as const;
+    });
+    if (outcome === "requeued") requeued++;
+    if (outcome === "failed") failed++;
+  }
+  return { requeued, failed };
 }
 
 /**
- * Runs that say they are being read while no job is open for them (a write that failed half-way
- * during an outage, or runs stored before the queue existed): given a fresh job, so no run can
- * stay "queued" or "parsing" for good. Cheap, and idempotent across instances.
+ * Runs that say they are being read while no job is open for them: a write that failed half-way
+ * during an outage, or runs stored before the queue existed. A plain read; the worker revives the
+ * ones it finds stuck on two passes in a row (reviveStuckRuns), so an enqueue in flight always wins.
  */
-export async function reconcileIngestJobs(): Promise<number> {
+export async function stuckRunIds(): Promise<number[]> {
+  const [rows] = await db().execute(sql`
+    SELECT r.id FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
+    WHERE r.status IN ${inProgress} AND (j.id IS NULL OR j.state IN ('done', 'failed'))`);
+  return (rows as unknown as { id: number }[]).map((r) => Number(r.id));
+}
+
+/** Gives each of these runs, if still stuck, a fresh job. Idempotent across instances. */
+export async function reviveStuckRuns(runIds: number[]): Promise<number> {
+  if (runIds.length === 0) return 0;
+  const ids = sql.join(runIds.map((id) => sql`${id}`), sql`, `);
   const [adopted] = await db().execute(sql`
     INSERT IGNORE INTO ${ingestJobs} (run_id, state, attempts, retries, available_at)
     SELECT r.id, 'queued', 0, 0, NOW(3) FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
-    WHERE j.id IS NULL AND r.status IN ${inProgress}`);
-  // Settled jobs whose run is still marked in progress, left a while so an enqueue in flight wins.
+    WHERE r.id IN (${ids}) AND j.id IS NULL AND r.status IN ${inProgress}`);
   const [revived] = await db().execute(sql`
     UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
     SET j.state = 'queued', j.attempts = 0, j.retries = 0, j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.updated_at = NOW(3)
-    WHERE j.state IN ('done', 'failed') AND r.status IN ${inProgress} AND j.updated_at < NOW(3) - INTERVAL 10 SECOND`);
+    WHERE j.run_id IN (${ids}) AND j.state IN ('done', 'failed') AND r.status IN ${inProgress}`);
   return affected(adopted) + affected(revived);
 }
 

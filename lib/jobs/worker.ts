@@ -5,7 +5,7 @@ import { ingestRun, type IngestOutcome } from "@/lib/ingest/ingest-run";
 import { drainOutbox, onMailQueued } from "@/lib/mail/outbox";
 import { instanceId } from "./instance-id";
 import {
-  claimIngestJob, failIngestJob, heartbeatIngestJob, openIngestJobs, reconcileIngestJobs, retryIngestJobLater, sweepStaleIngestJobs,
+  claimIngestJob, failIngestJob, heartbeatIngestJob, openIngestJobs, retryIngestJobLater, reviveStuckRuns, stuckRunIds, sweepStaleIngestJobs,
   type ClaimedJob,
 } from "./ingest-jobs";
 
@@ -34,6 +34,8 @@ interface WorkerState {
   mailAgain: boolean;
   lastSweep: number;
   lastReconcile: number;
+  /** Runs found stuck by the last reconcile pass. */
+  stuck: Set<number>;
   lastComplaint: number;
   stopped: boolean;
 }
@@ -57,6 +59,7 @@ export function startWorker(): void {
     mailAgain: false,
     lastSweep: 0,
     lastReconcile: 0,
+    stuck: new Set(),
     lastComplaint: 0,
     stopped: false,
   });
@@ -79,7 +82,8 @@ export async function stopWorker(): Promise<void> {
   await state.tick?.catch(() => {});
   await state.mail?.catch(() => {});
   await Promise.allSettled([...state.running.values()]);
-  g.sortieWorker = undefined;
+  // A worker started while this one was stopping is not this one's to clear.
+  if (g.sortieWorker === state) g.sortieWorker = undefined;
 }
 
 /** Work was queued in this process: look now rather than at the next poll. */
@@ -106,7 +110,7 @@ function pokeMail(): void {
     state.mailAgain = true;
     return;
   }
-  state.mail = drainOutbox()
+  state.mail = drainOutbox(() => state.stopped)
     .then(() => undefined)
     .catch((err) => complain(state, "mail", err))
     .finally(() => {
@@ -138,7 +142,10 @@ async function tick(state: WorkerState): Promise<void> {
     }
     if (now - state.lastReconcile > RECONCILE_EVERY_MS) {
       state.lastReconcile = now;
-      const n = await reconcileIngestJobs();
+      // Stuck on two passes in a row (15 s apart), so an upload or re-parse mid-enqueue is never touched.
+      const stuck = await stuckRunIds();
+      const n = await reviveStuckRuns(stuck.filter((id) => state.stuck.has(id)));
+      state.stuck = new Set(stuck);
       if (n) console.log(`[ingest] ${n} run(s) marked in progress without an open job were queued again`);
       await pruneRevokedSessions();
     }

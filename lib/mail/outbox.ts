@@ -54,11 +54,12 @@ async function leaseNext(): Promise<{ id: number; attempts: number } | null> {
 }
 
 /** Sends what is due, one message at a time; returns how many went out. Run by the background worker. */
-export async function drainOutbox(): Promise<{ sent: number; failed: number }> {
+export async function drainOutbox(stopping: () => boolean = () => false): Promise<{ sent: number; failed: number }> {
   const { MAIL_RETRY_BASE_S, MAIL_MAX_ATTEMPTS } = env();
   let sent = 0;
   let failed = 0;
   for (;;) {
+    if (stopping()) return { sent, failed };
     const lease = await leaseNext();
     if (!lease) return { sent, failed };
     const mine = and(eq(mailOutbox.id, lease.id), eq(mailOutbox.state, "pending"), eq(mailOutbox.attempts, lease.attempts));

@@ -177,9 +177,10 @@ describe("the object store stopped", () => {
     const done = await c.post(`/api/uploads/${uploadId}/complete`, {});
     expect(done.status, await done.clone().text()).toBe(200);
     const stored = await settledRun(c, ((await done.json()) as { runId: number }).runId, 60_000);
+    // The waiting re-parse runs at its next retry (the delays grow 2, 10, 30, 60 s).
     expect(stored.status).toBe("ready");
     expect(stored.sampleCount).toBe(2_000);
-    const reparsed = await settledRun(c, readyRunId, 60_000);
+    const reparsed = await settledRun(c, readyRunId, 150_000);
     expect(reparsed.status).toBe("ready");
     expect(reparsed.sampleCount).toBe(3_000);
   });

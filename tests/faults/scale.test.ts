@@ -156,6 +156,11 @@ describe(`load: ${scale.ingests} concurrent ingests and ${scale.reads} concurren
     const byA = owners.filter((o) => o?.includes(`:${a.process.pid}:`)).length;
     const byB = owners.filter((o) => o?.includes(`:${b.process.pid}:`)).length;
     expect(byA + byB).toBe(scale.ingests);
+    // Both instances' workers took part, and each log was read exactly once.
+    expect(byA).toBeGreaterThan(0);
+    expect(byB).toBeGreaterThan(0);
+    const [attemptRows] = await db().execute(sql`SELECT attempts FROM ingest_jobs WHERE run_id IN (${sql.join(uploaded.map((u) => sql`${u.runId}`), sql`, `)})`);
+    expect((attemptRows as unknown as { attempts: number }[]).map((r) => r.attempts)).toEqual(uploaded.map(() => 1));
 
     const sorted = [...latencies].sort((x, y) => x - y);
     const q = (xs: number[], p: number) => quantileSorted([...xs].sort((x, y) => x - y), p);

@@ -86,6 +86,22 @@ export async function failIngestJob(jobId: number, token: string, error: string)
     .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.state, "running"), eq(ingestJobs.claimedBy, token)));
 }
 
+/**
+ * The process is shutting down: its claims go straight back to the queue (another instance may
+ * take them at once, without waiting for the heartbeat to go stale), and the interrupted read
+ * does not count as an attempt. The readers' transactions die with the process and roll back.
+ */
+export async function releaseIngestClaims(tokens: string[]): Promise<number> {
+  if (tokens.length === 0) return 0;
+  const list = sql.join(tokens.map((t) => sql`${t}`), sql`, `);
+  const [r] = await db().execute(sql`
+    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
+    SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.updated_at = NOW(3),
+        j.attempts = GREATEST(j.attempts - 1, 0), j.last_error = 'shutdown', r.status = 'queued', r.progress = 0
+    WHERE j.state = 'running' AND j.claimed_by IN (${list})`);
+  return Math.ceil(affected(r) / 2);
+}
+
 /** A passing fault: back in the queue after `delayS`; the claim does not count as an attempt. */
 export async function retryIngestJobLater(jobId: number, token: string, delayS: number, error: string): Promise<void> {
   await db()

@@ -5,7 +5,7 @@ import { ingestRun, type IngestOutcome } from "@/lib/ingest/ingest-run";
 import { drainOutbox, onMailQueued } from "@/lib/mail/outbox";
 import { instanceId } from "./instance-id";
 import {
-  claimIngestJob, failIngestJob, heartbeatIngestJob, openIngestJobs, retryIngestJobLater, reviveStuckRuns, stuckRunIds, sweepStaleIngestJobs,
+  claimIngestJob, failIngestJob, heartbeatIngestJob, openIngestJobs, releaseIngestClaims, retryIngestJobLater, reviveStuckRuns, stuckRunIds, sweepStaleIngestJobs,
   type ClaimedJob,
 } from "./ingest-jobs";
 
@@ -84,6 +84,19 @@ export async function stopWorker(): Promise<void> {
   await Promise.allSettled([...state.running.values()]);
   // A worker started while this one was stopping is not this one's to clear.
   if (g.sortieWorker === state) g.sortieWorker = undefined;
+}
+
+/**
+ * On SIGTERM / SIGINT: stop claiming and hand the logs in hand back to the queue at once, in one
+ * statement (the server exits right after its own shutdown, so there is no time to finish them).
+ */
+export async function handBackForShutdown(): Promise<void> {
+  const state = g.sortieWorker;
+  if (!state) return;
+  state.stopped = true;
+  if (state.timer) clearInterval(state.timer);
+  const n = await releaseIngestClaims([...state.running.keys()]).catch(() => 0);
+  if (n) console.log(`[ingest] shutting down: ${n} log(s) being read handed back to the queue`);
 }
 
 /** Work was queued in this process: look now rather than at the next poll. */

@@ -119,6 +119,33 @@ describe("the app server killed in the middle of an ingest", () => {
   });
 });
 
+describe("the app server stopped (SIGTERM) in the middle of an ingest", () => {
+  it("hands the log back to the queue at once, without using an attempt, and reads it after the restart", async () => {
+    const rows = scale.crashRows;
+    const up = await uploadLog(c, "stopped-mid-read.csv", await makeLog(rows, 33));
+    await waitUntil("the ingest to be under way", async () => {
+      const r = await runJson(c, up.runId);
+      return r.status === "parsing" && r.progress > 0.05;
+    }, 60_000, 25);
+    await app.stop();
+
+    // Handed back by the stopping server itself, not by a sweep: no other instance is running.
+    const job = await one<{ state: string; attempts: number; claimed_by: string | null }>(
+      sql`SELECT state, attempts, claimed_by FROM ingest_jobs WHERE run_id = ${up.runId}`,
+    );
+    expect(job).toEqual({ state: "queued", attempts: 0, claimed_by: null });
+    expect(await samplesStored(up.runId)).toBe(0);
+
+    app = await stack.app(faults.appPort);
+    c = c.withBase(app.url);
+    const run = await settledRun(c, up.runId, scale.timeoutMs);
+    expect(run.status, run.error ?? "").toBe("ready");
+    expect(run.sampleCount).toBe(rows);
+    const after = await one<{ attempts: number }>(sql`SELECT attempts FROM ingest_jobs WHERE run_id = ${up.runId}`);
+    expect(after.attempts).toBe(1);
+  });
+});
+
 describe("MariaDB stopped", () => {
   it("gives pages a plain 503 page and the API a 503 answer, with no stack trace, and recovers", async () => {
     // Requests in flight when the database goes away end as a page or an error page, never a trace.

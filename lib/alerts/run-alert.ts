@@ -18,7 +18,7 @@ import { and, eq } from "drizzle-orm";
 import { db, type Database } from "@/db/client";
 import { auditLog, builds, crews, memberships, runs, users, type VerdictLevel } from "@/db/schema";
 import type { RunSummary } from "@/components/debrief/figure-list";
-import { isDatabaseDown } from "@/lib/api/database-down";
+import { errorCode, isDatabaseDown } from "@/lib/api/database-down";
 import { audit } from "@/lib/audit";
 import { env } from "@/lib/env";
 import { runAlertMail } from "@/lib/mail/run-alert-mail";
@@ -47,17 +47,10 @@ export async function alertAfterAnalysis(runId: number, previousVerdict: Verdict
 }
 
 function endsTransaction(e: unknown): boolean {
-  return /^(ER_LOCK_DEADLOCK|ER_LOCK_WAIT_TIMEOUT)$/.test(String(codeOf(e))) || isDatabaseDown(e);
+  return /^(ER_LOCK_DEADLOCK|ER_LOCK_WAIT_TIMEOUT)$/.test(String(errorCode(e))) || isDatabaseDown(e);
 }
 
-function codeOf(e: unknown): string | undefined {
-  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
-    const code = (cur as { code?: string }).code;
-    if (code) return code;
-    cur = (cur as { cause?: unknown }).cause;
-  }
-  return undefined;
-}
+
 
 async function alreadyAlerted(runId: number, dbx: Database): Promise<boolean> {
   const [row] = await dbx

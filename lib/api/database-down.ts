@@ -13,3 +13,13 @@ export function isDatabaseDown(e: unknown): boolean {
   }
   return false;
 }
+
+/** The first driver error code in the chain (Drizzle wraps the driver's error in `cause`). */
+export function errorCode(e: unknown): string | undefined {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: string }).code;
+    if (code) return code;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return undefined;
+}

@@ -5,7 +5,7 @@ import { db, inConnectionTransaction, pool, schema } from "@/db/client";
 import { getRunWithUpload } from "@/db/queries/runs";
 import { events, runs, type RunWarning } from "@/db/schema";
 import { alertAfterAnalysis } from "@/lib/alerts/run-alert";
-import { isDatabaseDown } from "@/lib/api/database-down";
+import { errorCode, isDatabaseDown } from "@/lib/api/database-down";
 import { holdsClaim, holdsJobRow, settleIngestJobInTransaction } from "@/lib/jobs/ingest-jobs";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { SeriesCollector } from "@/lib/analysis/series-collector";
@@ -73,15 +73,6 @@ export interface IngestOptions {
 
 class LostClaim extends Error {}
 
-/** The driver's error code, also when Drizzle wraps the driver error in `cause`. */
-function errorCode(e: unknown): string | undefined {
-  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
-    const code = (cur as { code?: string }).code;
-    if (code) return code;
-    cur = (cur as { cause?: unknown }).cause;
-  }
-  return undefined;
-}
 
 /** Connection-level failures of S3 or MariaDB, worth another attempt later. */
 function isPassingFault(e: unknown): boolean {

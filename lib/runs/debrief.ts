@@ -8,6 +8,7 @@ import { events as eventsTable } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import { viewRun } from "@/lib/ingest/runs";
 import { versionOf } from "@/lib/series/read-series";
+import { debriefEvent, debriefPlan } from "./debrief-parts";
 import { listNotes } from "./notes";
 
 /** Everything the debrief page shows for one run, after the read check in viewRun. */
@@ -23,30 +24,13 @@ export async function loadDebrief(actor: Actor, runId: number) {
     getUserById(actor.user.id),
   ]);
   const signedOffBy = row?.signedOffBy ? await getUserById(row.signedOffBy) : null;
-  const thresholds = (run.summary?.thresholds ?? {}) as { acceptanceRadiusM?: number };
   return {
     run,
-    events: events.map((e) => ({
-      id: e.id,
-      kind: e.kind,
-      startS: e.startS,
-      endS: e.endS,
-      lat: e.lat,
-      lon: e.lon,
-      distanceFromHomeM: e.distanceFromHomeM,
-      peak: e.peak,
-      threshold: e.threshold,
-      detail: (e.detail as Record<string, unknown> | null) ?? null,
-    })),
+    events: events.map(debriefEvent),
     notes,
     buildName: build?.name ?? null,
     pilotName: pilot?.name ?? null,
-    plan: plan
-      ? {
-          name: plan.name,
-          waypoints: plan.waypoints.map((w) => ({ name: w.name, lat: w.lat, lon: w.lon, radiusM: w.radiusM ?? thresholds.acceptanceRadiusM ?? 2 })),
-        }
-      : null,
+    plan: debriefPlan(plan, run.summary ?? null),
     /** Keys the charts' and map's requests: a re-parse rewrites the run row and so the version. */
     dataVersion: row ? versionOf(row) : "0",
     signOff: row?.signedOffAt ? { by: signedOffBy?.name ?? "a former member", at: row.signedOffAt } : null,

@@ -7,7 +7,7 @@ import { asc, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { getRoutePlan } from "@/db/queries/route-plans";
 import { builds, events as eventsTable, runNotes, uploads, users, type Run } from "@/db/schema";
-import type { DebriefEvent } from "@/components/debrief/event-words";
+import { debriefEvent, debriefPlan } from "@/lib/runs/debrief-parts";
 import { versionOf } from "@/lib/series/read-series";
 import { openShare } from "./resolve";
 
@@ -33,7 +33,6 @@ async function debriefOf(run: Run) {
     run.signedOffAt ? nameOf(run.signedOffBy) : null,
     db().select({ note: uploads.note }).from(uploads).where(eq(uploads.id, run.uploadId)).limit(1),
   ]);
-  const thresholds = (run.summary?.thresholds ?? {}) as { acceptanceRadiusM?: number };
   return {
     run: {
       id: run.id,
@@ -46,26 +45,11 @@ async function debriefOf(run: Run) {
       summary: run.summary,
       note: upload[0]?.note ?? null,
     },
-    events: events.map(
-      (e): DebriefEvent => ({
-        id: e.id,
-        kind: e.kind,
-        startS: e.startS,
-        endS: e.endS,
-        lat: e.lat,
-        lon: e.lon,
-        distanceFromHomeM: e.distanceFromHomeM,
-        peak: e.peak,
-        threshold: e.threshold,
-        detail: (e.detail as Record<string, unknown> | null) ?? null,
-      }),
-    ),
+    events: events.map(debriefEvent),
     notes: notes.map((n) => ({ id: n.id, body: n.body, createdAt: n.createdAt, authorName: n.authorName ?? null })),
     buildName: build[0]?.name ?? null,
     pilotName,
-    plan: plan
-      ? { name: plan.name, waypoints: plan.waypoints.map((w) => ({ name: w.name, lat: w.lat, lon: w.lon, radiusM: w.radiusM ?? thresholds.acceptanceRadiusM ?? 2 })) }
-      : null,
+    plan: debriefPlan(plan, run.summary ?? null),
     dataVersion: versionOf(run),
     signOff: run.signedOffAt ? { by: signedOffBy ?? "a former member", at: run.signedOffAt } : null,
   };

@@ -3,9 +3,10 @@ import { notFound } from "next/navigation";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
 import { RangeSection } from "@/components/debrief/range-section";
 import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
+import { NotesSection } from "@/components/debrief/notes-section";
+import { RunCautions } from "@/components/debrief/run-cautions";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
-import { SafetyNote } from "@/components/ui/safety-note";
 import { env } from "@/lib/env";
 import { formatSpan } from "@/lib/format/units";
 import { openSharedDebrief } from "@/lib/share/shared-debrief";
@@ -37,7 +38,6 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
   const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
   const range = summary.range;
-  const failsafeExercised = summary.failsafe && summary.failsafe.result !== "not-tested";
 
   return (
     <>
@@ -85,33 +85,9 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
 
       {ready && <RangeSection runId={run.id} version={d.dataVersion} apiBase={apiBase} range={range} units={units} />}
 
-      <section className="panel mt-6" aria-labelledby="notes-title">
-        <h2 id="notes-title" className="text-lg font-semibold">
-          Notes <span className="figures text-ink-soft">({d.notes.length})</span>
-        </h2>
-        {d.notes.length === 0 ? (
-          <p className="mt-1 text-sm text-ink-soft">No notes on this debrief.</p>
-        ) : (
-          <ol className="mt-2 space-y-3" data-testid="notes">
-            {d.notes.map((n) => (
-              <li key={n.id} className="border-l-4 border-tide-300 pl-3">
-                <p className="text-sm whitespace-pre-wrap break-words">{n.body}</p>
-                <p className="mt-1 text-xs text-ink-soft">
-                  {n.authorName ?? "a former member"} · <span className="figures">{utc(n.createdAt)}</span>
-                </p>
-              </li>
-            ))}
-          </ol>
-        )}
-      </section>
+      <NotesSection notes={d.notes} emptyText="No notes on this debrief." />
 
-      {ready && (
-        <section className="mt-6 grid gap-3 md:grid-cols-2" aria-label="Cautions">
-          {failsafeExercised && <SafetyNote topic="failsafe" />}
-          {summary.power?.minCellV != null && <SafetyNote topic="battery" />}
-          <SafetyNote topic="general" />
-        </section>
-      )}
+      {ready && <RunCautions summary={summary} />}
 
       <section className="panel mt-6" aria-labelledby="log-title">
         <h2 id="log-title" className="text-lg font-semibold">

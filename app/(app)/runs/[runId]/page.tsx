@@ -5,6 +5,8 @@ import { MoveRunForm } from "@/components/builds/move-run-form";
 import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
 import { RangeSection } from "@/components/debrief/range-section";
 import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
+import { NotesSection } from "@/components/debrief/notes-section";
+import { RunCautions } from "@/components/debrief/run-cautions";
 import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
 import { ExportLinks } from "@/components/runs/export-links";
 import { formatBytes } from "@/components/runs/format-bytes";
@@ -14,7 +16,6 @@ import { RunStatusPoller } from "@/components/runs/run-status-poller";
 import { runStatusText } from "@/components/runs/run-status-text";
 import { SharePanel } from "@/components/share/share-panel";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
-import { SafetyNote } from "@/components/ui/safety-note";
 import { listBuilds } from "@/db/queries/builds";
 import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
@@ -69,7 +70,6 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
   const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
   const range = summary.range;
-  const failsafeExercised = summary.failsafe && summary.failsafe.result !== "not-tested";
   const mayShare = can(d.role as never, "share");
   const builds = run.mayEdit ? (await listBuilds(run.crewId)).map((b) => ({ id: b.id, name: b.name })) : [];
 
@@ -139,26 +139,9 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
 
       {ready && <RangeSection runId={run.id} version={d.dataVersion} range={range} units={units} />}
 
-      <section className="panel mt-6" aria-labelledby="notes-title">
-        <h2 id="notes-title" className="text-lg font-semibold">
-          Notes <span className="figures text-ink-soft">({d.notes.length})</span>
-        </h2>
-        {d.notes.length === 0 ? (
-          <p className="mt-1 text-sm text-ink-soft">No notes yet. Pilots add what they saw and changed; leads read them before signing off.</p>
-        ) : (
-          <ol className="mt-2 space-y-3" data-testid="notes">
-            {d.notes.map((n) => (
-              <li key={n.id} className="border-l-4 border-tide-300 pl-3">
-                <p className="text-sm whitespace-pre-wrap break-words">{n.body}</p>
-                <p className="mt-1 text-xs text-ink-soft">
-                  {n.authorName ?? "a former member"} · <span className="figures">{utc(n.createdAt)}</span>
-                </p>
-              </li>
-            ))}
-          </ol>
-        )}
+      <NotesSection notes={d.notes} emptyText="No notes yet. Pilots add what they saw and changed; leads read them before signing off.">
         {mayNote && <NoteForm runId={run.id} />}
-      </section>
+      </NotesSection>
 
       {ready && (
         <section className="panel mt-6" aria-labelledby="share-title">
@@ -182,13 +165,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
         </section>
       )}
 
-      {ready && (
-        <section className="mt-6 grid gap-3 md:grid-cols-2" aria-label="Cautions">
-          {failsafeExercised && <SafetyNote topic="failsafe" />}
-          {summary.power?.minCellV != null && <SafetyNote topic="battery" />}
-          <SafetyNote topic="general" />
-        </section>
-      )}
+      {ready && <RunCautions summary={summary} />}
 
       <section className="panel mt-6" aria-labelledby="log-title">
         <h2 id="log-title" className="text-lg font-semibold">

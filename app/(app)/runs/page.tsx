@@ -11,6 +11,7 @@ import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
 import { formatDistance, formatSpan, type Units } from "@/lib/format/units";
 import { readRunListQuery, runListSearch, type RunListQuery, type RunSortKey } from "@/lib/validations/run-list";
+import { Pager } from "@/components/ui/pager";
 
 export const metadata: Metadata = { title: "Runs" };
 
@@ -168,27 +169,7 @@ export default async function RunsPage({ searchParams }: { searchParams: Promise
               </table>
             </div>
           )}
-          {pages > 1 && (
-            <nav aria-label="Pages" className="mt-4 flex items-center justify-between gap-2">
-              {q.page > 1 ? (
-                <Link href={`/runs${runListSearch(q, { page: q.page - 1 })}`} className="btn-quiet" rel="prev">
-                  ← Newer page
-                </Link>
-              ) : (
-                <span />
-              )}
-              <span className="figures text-sm text-ink-soft">
-                {q.page} / {pages}
-              </span>
-              {q.page < pages ? (
-                <Link href={`/runs${runListSearch(q, { page: q.page + 1 })}`} className="btn-quiet" rel="next">
-                  Older page →
-                </Link>
-              ) : (
-                <span />
-              )}
-            </nav>
-          )}
+          <Pager page={q.page} pages={pages} hrefFor={(n) => `/runs${runListSearch(q, { page: n })}`} />
         </>
       )}
     </>

@@ -1,13 +1,11 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
-import { RangeSection } from "@/components/debrief/range-section";
+import { DebriefBody } from "@/components/debrief/debrief-body";
 import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
 import { NotesSection } from "@/components/debrief/notes-section";
 import { RunCautions } from "@/components/debrief/run-cautions";
-import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
+import type { RunSummary } from "@/components/debrief/summary-figures";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
-import { env } from "@/lib/env";
 import { formatSpan } from "@/lib/format/units";
 import { openSharedDebrief } from "@/lib/share/shared-debrief";
 
@@ -36,8 +34,6 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
   const ready = run.status === "ready";
   const verdict = ready ? (summary.verdict ?? null) : null;
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
-  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
-  const range = summary.range;
 
   return (
     <>
@@ -63,27 +59,7 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
 
       {verdict && <VerdictStrip verdict={verdict} signOff={d.signOff} />}
 
-      {ready && <SummaryFigures summary={summary} units={units} />}
-
-      {ready && run.sampleCount > 0 && (
-        <DebriefWorkspace
-          runId={run.id}
-          version={d.dataVersion}
-          apiBase={apiBase}
-          durationS={run.durationS ?? summary.durationS ?? 0}
-          events={d.events}
-          fieldsPresent={summary.fieldsPresent ?? []}
-          hasPlan={Boolean(d.plan)}
-          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold }}
-          units={units}
-          plan={d.plan}
-          home={(run.summary?.home as { lat: number; lon: number } | null) ?? null}
-          tileUrl={env().MAP_TILE_URL ?? null}
-          tileAttribution={env().MAP_TILE_ATTRIBUTION ?? null}
-        />
-      )}
-
-      {ready && <RangeSection runId={run.id} version={d.dataVersion} apiBase={apiBase} range={range} units={units} />}
+      <DebriefBody run={run} summary={summary} dataVersion={d.dataVersion} events={d.events} plan={d.plan} units={units} apiBase={apiBase} />
 
       <NotesSection notes={d.notes} emptyText="No notes on this debrief." />
 

@@ -5,6 +5,7 @@ import { listAuditActions, listAuditPage, readAuditQuery, type AuditQuery } from
 import { PageHeader } from "@/components/ui/page-header";
 import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
+import { Pager } from "@/components/ui/pager";
 
 export const metadata: Metadata = { title: "Audit log" };
 
@@ -90,27 +91,7 @@ export default async function CrewAuditPage({ searchParams }: { searchParams: Pr
           </table>
         </div>
       )}
-      {pages > 1 && (
-        <nav aria-label="Pages" className="mt-4 flex items-center justify-between">
-          {q.page > 1 ? (
-            <Link href={`/crew/audit${search(q, q.page - 1)}`} className="btn-quiet" rel="prev">
-              ← Newer page
-            </Link>
-          ) : (
-            <span />
-          )}
-          <span className="figures text-sm text-ink-soft">
-            {q.page} / {pages}
-          </span>
-          {q.page < pages ? (
-            <Link href={`/crew/audit${search(q, q.page + 1)}`} className="btn-quiet" rel="next">
-              Older page →
-            </Link>
-          ) : (
-            <span />
-          )}
-        </nav>
-      )}
+      <Pager page={q.page} pages={pages} hrefFor={(n) => `/crew/audit${search(q, n)}`} />
     </>
   );
 }

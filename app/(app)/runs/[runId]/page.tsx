@@ -2,12 +2,11 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { MoveRunForm } from "@/components/builds/move-run-form";
-import { DebriefWorkspace } from "@/components/debrief/debrief-workspace";
-import { RangeSection } from "@/components/debrief/range-section";
+import { DebriefBody } from "@/components/debrief/debrief-body";
 import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
 import { NotesSection } from "@/components/debrief/notes-section";
 import { RunCautions } from "@/components/debrief/run-cautions";
-import { SummaryFigures, type RunSummary } from "@/components/debrief/summary-figures";
+import type { RunSummary } from "@/components/debrief/summary-figures";
 import { ExportLinks } from "@/components/runs/export-links";
 import { formatBytes } from "@/components/runs/format-bytes";
 import { PdfLink } from "@/components/runs/pdf-link";
@@ -19,7 +18,6 @@ import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
 import { listBuilds } from "@/db/queries/builds";
 import { getCrewPageContext } from "@/lib/auth/page-context";
 import { can } from "@/lib/auth/roles";
-import { env } from "@/lib/env";
 import { NotFoundError } from "@/lib/errors";
 import { formatSpan } from "@/lib/format/units";
 import { loadDebrief, type Debrief } from "@/lib/runs/debrief";
@@ -68,8 +66,6 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
   const mayNote = can(d.role as never, "writeNote");
   const maySign = can(d.role as never, "signOff");
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
-  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
-  const range = summary.range;
   const mayShare = can(d.role as never, "share");
   const builds = run.mayEdit ? (await listBuilds(run.crewId)).map((b) => ({ id: b.id, name: b.name })) : [];
 
@@ -118,26 +114,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
         </section>
       )}
 
-      {ready && <SummaryFigures summary={summary} units={units} />}
-
-      {ready && run.sampleCount > 0 && (
-        <DebriefWorkspace
-          runId={run.id}
-          version={d.dataVersion}
-          durationS={run.durationS ?? summary.durationS ?? 0}
-          events={d.events}
-          fieldsPresent={summary.fieldsPresent ?? []}
-          hasPlan={Boolean(d.plan)}
-          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold }}
-          units={units}
-          plan={d.plan}
-          home={(run.summary?.home as { lat: number; lon: number } | null) ?? null}
-          tileUrl={env().MAP_TILE_URL ?? null}
-          tileAttribution={env().MAP_TILE_ATTRIBUTION ?? null}
-        />
-      )}
-
-      {ready && <RangeSection runId={run.id} version={d.dataVersion} range={range} units={units} />}
+      <DebriefBody run={run} summary={summary} dataVersion={d.dataVersion} events={d.events} plan={d.plan} units={units} />
 
       <NotesSection notes={d.notes} emptyText="No notes yet. Pilots add what they saw and changed; leads read them before signing off.">
         {mayNote && <NoteForm runId={run.id} />}

@@ -38,13 +38,25 @@ export interface RunSeries {
 export type VehicleType = "ground" | "multirotor" | "fixed-wing" | "boat";
 export type FailsafeAction = "return-to-home" | "hold" | "land";
 
+/** One row of the build's link sheet as the analysis reads it (PWM values in µs). */
+export interface ChannelConfig {
+  channel: number;
+  /** A link-sheet function: "return-to-home", "mission", "rssi", "arm", "mode", … */
+  function: string;
+  /** The value the receiver puts out on this channel when the link is lost. */
+  failsafeUs?: number;
+  /** The range in which the function engages (mission channel: the mission runs). */
+  engageMinUs?: number;
+  engageMaxUs?: number;
+}
+
 export interface BuildConfig {
   vehicleType: VehicleType;
   cells?: number;
   bandMhz?: number;
   rxSensitivityDbm?: number;
   failsafe?: { action: FailsafeAction; expectedWithinS: number };
-  channels?: { channel: number; function: string; failsafeUs?: number }[];
+  channels?: ChannelConfig[];
 }
 
 export interface RoutePlanInput {
@@ -66,13 +78,21 @@ export interface Thresholds {
   lostMinS: number;
   hdopWarn: number;
   minSats: number;
+  /** Home needs a good fix: at least this many satellites (when logged)… */
+  homeMinSats: number;
+  /** …and HDOP at or below this (when logged). */
+  homeMaxHdop: number;
   /** Implied speed between two fixes above which the second is a position jump (m/s). */
   jumpSpeedMps: number;
   acceptanceRadiusM: number;
   corridorM: number;
   offRouteMinS: number;
+  /** Hysteresis: an off-route ends only when |XTE| falls below corridor − this margin (m). */
+  offRouteExitMarginM: number;
   lowCellV: number;
   lowVoltageMinS: number;
+  /** Loaded voltage is judged on its mean over a centred window this long (s), so jitter does not fire. */
+  lowVoltageWindowS: number;
 }
 
 export interface AnalysisEvent {

@@ -32,7 +32,13 @@ export async function loadAnalysisInputs(run: { crewId: number; buildId: number 
             : undefined,
         channels: sameCrewBuild.channels
           .filter((c) => c.function !== "unused")
-          .map((c) => ({ channel: c.channel, function: c.function, failsafeUs: c.failsafeUs ?? undefined })),
+          .map((c) => ({
+            channel: c.channel,
+            function: c.function,
+            failsafeUs: c.failsafeUs ?? undefined,
+            engageMinUs: c.engageMinUs ?? undefined,
+            engageMaxUs: c.engageMaxUs ?? undefined,
+          })),
       }
     : undefined;
   const planInput: RoutePlanInput | undefined = samePlan

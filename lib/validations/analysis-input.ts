@@ -8,7 +8,15 @@ export const buildConfigSchema = z.object({
   rxSensitivityDbm: z.number().min(-150).max(0).optional(),
   failsafe: z.object({ action: z.enum(["return-to-home", "hold", "land"]), expectedWithinS: z.number().min(0).max(120) }).optional(),
   channels: z
-    .array(z.object({ channel: z.number().int().min(1).max(18), function: z.string().min(1).max(40), failsafeUs: z.number().int().min(500).max(2500).optional() }))
+    .array(
+      z.object({
+        channel: z.number().int().min(1).max(18),
+        function: z.string().min(1).max(40),
+        failsafeUs: z.number().int().min(500).max(2500).optional(),
+        engageMinUs: z.number().int().min(500).max(2500).optional(),
+        engageMaxUs: z.number().int().min(500).max(2500).optional(),
+      }),
+    )
     .max(18)
     .optional(),
 });

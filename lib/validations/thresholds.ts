@@ -16,12 +16,16 @@ export const thresholdsSchema = z
     lostMinS: seconds,
     hdopWarn: z.number().min(0.5).max(50),
     minSats: z.number().int().min(0).max(40),
+    homeMinSats: z.number().int().min(0).max(40),
+    homeMaxHdop: z.number().min(0.5).max(50),
     jumpSpeedMps: z.number().positive().max(1000),
     acceptanceRadiusM: z.number().positive().max(10_000),
     corridorM: z.number().positive().max(10_000),
     offRouteMinS: seconds,
+    offRouteExitMarginM: z.number().min(0).max(1000),
     lowCellV: z.number().min(2).max(4.5),
     lowVoltageMinS: seconds,
+    lowVoltageWindowS: z.number().min(0).max(30),
   })
   .partial()
   .strict();

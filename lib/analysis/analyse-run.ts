@@ -1,6 +1,9 @@
 import { quantileSorted } from "simple-statistics";
+import type { HomeInfo, NotAssessed } from "./evidence";
 import { analyseFailsafe } from "./failsafe";
+import { classifyModeName } from "./failsafe-modes";
 import { analyseLink } from "./link";
+import { findMissionStart } from "./mission-start";
 import { analysePower } from "./power";
 import { estimateRange } from "./range";
 import { analyseRoute } from "./route";
@@ -38,11 +41,21 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
   const th = opts.thresholds ?? defaultThresholds(opts.build?.vehicleType ?? "ground");
   const track = analyseTrack(series, th);
   const fromHome = track.distanceFromHomeM;
+  // DESIGN.md §10 "Bench failsafe test": no usable fix → analysed for link and failsafe only.
+  const bench = track.usableFixes === 0;
   const link = analyseLink(series, th, opts.build, fromHome);
   const linkLost = link.events.filter((e) => e.kind === "link-lost");
-  const failsafe = analyseFailsafe(series, linkLost, opts.build, th, fromHome);
+  const failsafe = analyseFailsafe(series, linkLost, opts.build, th, { distanceFromHome: fromHome, usableFix: track.usableFix });
   const rthSpans = failsafe.events.filter((e) => e.kind === "return-to-home").map((e) => ({ startS: e.startS, endS: e.endS }));
-  const route = opts.plan ? analyseRoute(series, opts.plan, th, { distanceFromHome: fromHome, rthSpans, usableFix: track.usableFix, home: track.home }) : null;
+  const homeIndex = track.home?.index ?? -1;
+  const mission = opts.plan && !bench ? findMissionStart(series, opts.build, { homeIndex, usableFix: track.usableFix, distanceFromHomeM: fromHome }) : null;
+  const start = mission && mission.index >= 0 ? { index: mission.index, lat: series.lat[mission.index], lon: series.lon[mission.index] } : undefined;
+  const route =
+    opts.plan && !bench
+      ? analyseRoute(series, opts.plan, th, {
+          distanceFromHome: fromHome, rthSpans, usableFix: track.usableFix, home: track.home, start, suspended: suspendedMask(series, mission?.engaged ?? null, start?.index ?? 0),
+        })
+      : null;
   const power = analysePower(series, th, opts.build, fromHome);
   const sensitivity = opts.build?.rxSensitivityDbm ?? th.defaultSensitivityDbm;
   const range = estimateRange(series.rssiDbm, fromHome, { sensitivityDbm: sensitivity, fadeMarginDb: th.dbmFadeMarginDb, bandMhz: opts.build?.bandMhz, linked: link.linked });
@@ -51,6 +64,17 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     (a, b) => a.startS - b.startS || a.endS - b.endS,
   );
   const count = (kind: AnalysisEvent["kind"]) => events.filter((e) => e.kind === kind).length;
+  const notAssessed = assessmentGaps({
+    linkMetric: link.summary.metric,
+    linkNote: link.summary.note,
+    hasBuild: opts.build !== undefined,
+    failsafeResult: failsafe.outcome,
+    failsafeWhy: failsafe.why,
+    hasPlan: opts.plan !== undefined,
+    bench,
+    hasVoltage: power.restingV !== null || power.minUnderLoadV !== null,
+    cells: power.cells,
+  });
   const verdict = judgeRun({
     linkLost: count("link-lost"),
     linkFades: count("link-fade"),
@@ -61,7 +85,18 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     fixLost: count("fix-lost"),
     positionJumps: count("position-jump"),
     hdopWarnS: track.hdopWarnS,
+    notAssessed,
   });
+  const home: HomeInfo | null = track.home
+    ? {
+        lat: track.home.lat,
+        lon: track.home.lon,
+        tS: track.home.tS,
+        source: track.homeSource!,
+        sats: Number.isFinite(series.sats[track.home.index]) ? series.sats[track.home.index] : null,
+        hdop: Number.isFinite(series.hdop[track.home.index]) ? series.hdop[track.home.index] : null,
+      }
+    : null;
   const sorted = route ? absFiniteSorted(route.xteM) : new Float64Array(0);
   let sq = 0;
   for (let i = 0; i < sorted.length; i++) sq += sorted[i] * sorted[i];
@@ -74,11 +109,16 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     distanceM: round(track.distanceM, 1),
     maxDistanceFromHomeM: round(track.maxDistanceFromHomeM, 1),
     maxSpeedMps: round(track.maxSpeedMps),
-    home: track.home ? { lat: track.home.lat, lon: track.home.lon } : null,
+    bench,
+    home,
     gps: { fixLostS: round(track.fixLostS), hdopWarnS: round(track.hdopWarnS), maxHdop: round(track.maxHdop) },
     link: {
       metric: link.summary.metric,
       unit: link.summary.unit,
+      source: link.summary.source,
+      note: link.summary.note,
+      fadeCount: link.summary.fadeCount,
+      lostCount: link.summary.lostCount,
       min: round(link.summary.min),
       median: round(link.summary.median),
       p5: round(link.summary.p5),
@@ -87,20 +127,27 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     },
     failsafe: {
       result: failsafe.outcome,
+      why: failsafe.why,
+      plan: failsafe.plan,
+      commanded: failsafe.decisive?.commanded ?? null,
+      flown: failsafe.decisive?.flown ?? null,
       latencyS: round(failsafe.decisive?.failsafeLatencyS ?? null),
       actionLatencyS: round(failsafe.decisive?.actionLatencyS ?? null),
       action: failsafe.decisive?.action ?? null,
-      plan: failsafe.plan,
     },
     route: route
       ? {
+          start: mission && start ? { source: mission.source!, startS: series.tS[start.index], lat: start.lat, lon: start.lon } : null,
           xteRmsM: round(rms),
           xteP95M: round(p95),
           xteMaxM: round(sorted.length ? sorted[sorted.length - 1] : null),
           waypointsReached: route.reached,
           waypointsMissed: route.missed,
           waypointsNotReached: route.notReached,
-          legs: route.legs.map((l) => ({ from: l.from, to: l.to, rmsXteM: round(l.rmsXteM), p95XteM: round(l.p95XteM), maxXteM: round(l.maxXteM) })),
+          // A first leg never flown (the mission started inside waypoint 1's circle) is not a leg of this run.
+          legs: route.legs
+            .filter((l) => !(l.index === 0 && start && l.samples === 0))
+            .map((l) => ({ from: l.from, to: l.to, rmsXteM: round(l.rmsXteM), p95XteM: round(l.p95XteM), maxXteM: round(l.maxXteM) })),
         }
       : null,
     power: {
@@ -129,8 +176,62 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     thresholds: th,
   };
   // Per-sample values the display levels store beside the samples (lib/series); not part of the summary.
-  const perSample = { distanceFromHomeM: fromHome, xteM: route ? route.xteM : null };
+  const perSample = { distanceFromHomeM: fromHome, xteM: route ? route.xteM : null, rssiRcPct: link.rcRssiPct };
   return { summary, events, perSample };
 }
 
 export type RunAnalysis = ReturnType<typeof analyseRun>;
+
+/**
+ * Per sample: 1 where route following is suspended besides return-to-home (which the route
+ * module gets as spans): a land or hold mode, and — when a mission mode or channel shows the
+ * mission — after its start while it is not engaged (the pilot took over or it ended).
+ */
+function suspendedMask(series: RunSeries, engaged: Uint8Array | null, from: number): Uint8Array {
+  const out = new Uint8Array(series.n);
+  const classes = series.modeNames.map(classifyModeName);
+  for (let i = 0, held = NaN; i < series.n; i++) {
+    if (Number.isFinite(series.modeIndex[i])) held = series.modeIndex[i];
+    const action = Number.isFinite(held) ? classes[held]?.action : null;
+    if (action === "land" || action === "hold" || (engaged && i >= from && !engaged[i])) out[i] = 1;
+  }
+  return out;
+}
+
+/** What the analysis knows about the evidence in the log, for {@link assessmentGaps}. */
+export interface EvidenceFacts {
+  linkMetric: string | null;
+  linkNote: string | null;
+  hasBuild: boolean;
+  failsafeResult: string;
+  failsafeWhy: string | null;
+  hasPlan: boolean;
+  bench: boolean;
+  hasVoltage: boolean;
+  cells: number | null;
+}
+
+/**
+ * The parts of the run the log cannot show, each with why (DESIGN.md §10 "Evidence, not
+ * absence"): no link metric, a failsafe not exercised or not judgeable, no route plan or no fix,
+ * no voltage or no cell count, no GPS fix. Pure.
+ */
+export function assessmentGaps(f: EvidenceFacts): NotAssessed[] {
+  const gaps: NotAssessed[] = [];
+  if (f.linkMetric === null)
+    gaps.push({
+      what: "link",
+      why:
+        f.linkNote ??
+        (f.hasBuild
+          ? "the log has no link metric: no RSSI or LQ column, and the build's link sheet names no RSSI channel"
+          : "the log has no link metric: no RSSI or LQ column, and no build with an RSSI channel on its link sheet"),
+    });
+  if (f.failsafeResult === "not-assessed") gaps.push({ what: "failsafe", why: f.failsafeWhy ?? "not exercised" });
+  if (!f.hasPlan) gaps.push({ what: "route", why: "no route plan is attached to the run" });
+  else if (f.bench) gaps.push({ what: "route", why: "the log has no usable GPS fix" });
+  if (!f.hasVoltage) gaps.push({ what: "battery", why: "the log has no battery voltage" });
+  else if (f.cells === null) gaps.push({ what: "battery", why: "the cell count is unknown: set it on the build" });
+  if (f.bench) gaps.push({ what: "gps", why: "the log has no usable GPS fix (a bench test, or indoors)" });
+  return gaps;
+}

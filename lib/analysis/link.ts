@@ -2,6 +2,9 @@
  * Link health (DESIGN.md §5 "Link"): one link metric, its fades and losses, and its statistics.
  */
 import { quantileSorted } from "simple-statistics";
+import { pwmToPct } from "@/lib/parsers/csv-values";
+import { RC_CHANNELS } from "@/lib/parsers/types";
+import type { LinkSource } from "./evidence";
 import { spanEvent } from "./span-event";
 import { findSpans, type Span } from "./spans";
 import type { AnalysisEvent, BuildConfig, RunSeries, Thresholds } from "./types";
@@ -13,6 +16,10 @@ export interface LinkSummary {
   /** null when the log carries no LQ or RSSI at all. */
   metric: LinkMetric | null;
   unit: "%" | "dBm" | null;
+  /** A column of the log, or the link sheet's RSSI channel; null without a metric. */
+  source: LinkSource | null;
+  /** What the reader should know about the choice (e.g. the sheet's RSSI channel was present but not used). */
+  note: string | null;
   /** Below this the link is fading (% or dBm). */
   fadeThreshold: number | null;
   /** A fade ends at the first sample at or above this (threshold + hysteresis). */
@@ -37,6 +44,69 @@ export interface LinkAnalysis {
   events: AnalysisEvent[];
   /** Per sample: 1 when the link was up, 0 inside a link-lost event (e.g. for the range fit). */
   linked: Uint8Array;
+  /** Per sample: RSSI % read from the link sheet's RSSI channel, when that is the metric; else null. */
+  rcRssiPct: Float64Array | null;
+}
+
+/** The link metric the run is judged on, where it came from, and its values. */
+export interface ChosenLinkMetric {
+  metric: LinkMetric | null;
+  values: ArrayLike<number>;
+  source: LinkSource | null;
+  note: string | null;
+  /** Set when the values were read from an RC channel (for the display levels). */
+  derived: Float64Array | null;
+}
+
+const lettersOnly = (s: string) => s.toLowerCase().replace(/[^a-z]/g, "");
+
+/** The link sheet's RSSI channel (function "rssi"), or null. */
+export function rssiChannelOf(build: BuildConfig | undefined): number | null {
+  const c = build?.channels?.find((ch) => lettersOnly(ch.function) === "rssi" && ch.channel >= 1 && ch.channel <= RC_CHANNELS);
+  return c ? c.channel : null;
+}
+
+/**
+ * RSSI % per sample from RC channel `channel` (1-based): 1000 µs = 0 %, 2000 µs = 100 %, clamped
+ * (the receiver's usual mapping, DESIGN.md §4/§10, common practice); NaN where the channel carries
+ * no pulse (0 = absent). Null when the log has no RC data or the channel never carries a value.
+ */
+export function rssiFromChannel(series: Pick<RunSeries, "n" | "rc">, channel: number): Float64Array | null {
+  const { n, rc } = series;
+  if (!rc) return null;
+  const out = new Float64Array(n);
+  let any = false;
+  for (let i = 0; i < n; i++) {
+    const us = rc[i * RC_CHANNELS + channel - 1];
+    if (us > 0) {
+      out[i] = pwmToPct(us);
+      any = true;
+    } else out[i] = NaN;
+  }
+  return any ? out : null;
+}
+
+/**
+ * Chooses the link metric (DESIGN.md §5, §10): LQ % when the log has any LQ, else RSSI %, else
+ * RSSI dBm — a column of the log always wins; only when the log has none of them and the build's
+ * link sheet names an RSSI channel is RSSI % read from that RC channel. When both exist the column
+ * is used and `note` says the channel was not.
+ *
+ * Cost: O(n). Pure.
+ */
+export function chooseLinkMetric(series: RunSeries, build?: BuildConfig): ChosenLinkMetric {
+  const column: LinkMetric | null = hasAny(series.lqPct) ? "lq" : hasAny(series.rssiPct) ? "rssi-pct" : hasAny(series.rssiDbm) ? "rssi-dbm" : null;
+  const channel = rssiChannelOf(build);
+  const fromChannel = channel !== null ? rssiFromChannel(series, channel) : null;
+  if (column !== null) {
+    const values = column === "lq" ? series.lqPct : column === "rssi-pct" ? series.rssiPct : series.rssiDbm;
+    const name = column === "lq" ? "LQ" : "RSSI";
+    const note = fromChannel ? `The log also carries RSSI on channel ${channel} (link sheet); the logged ${name} column was used` : null;
+    return { metric: column, values, source: { kind: "column" }, note, derived: null };
+  }
+  if (fromChannel && channel !== null) return { metric: "rssi-pct", values: fromChannel, source: { kind: "rc-channel", channel }, note: null, derived: fromChannel };
+  const note = channel !== null ? `The link sheet names channel ${channel} for RSSI, but the log carries no values on it` : null;
+  return { metric: null, values: series.rssiDbm, source: null, note, derived: null };
 }
 
 /** Fields that show the logger was still receiving the vehicle while the link metric was absent. */
@@ -91,8 +161,9 @@ function mergeSpans(spans: { span: Span; cause: string }[]): { span: Span; cause
  * other fields keep coming, for ≥ max(`lostMinS`, the metric's usual sample spacing) and only after
  * its first value (a sparser link column is not a loss; before its first value the link was not
  * up yet); or the failsafe flag raised (any duration). Overlapping causes give one event.
- * A loss inside a fade does not split the fade: the fade is reported around it, and both events
- * stand. Spans never bridge a reception gap (`segmentStart`). Events carry the position at their
+ * One incident, one event: a fade that runs into a loss is not reported on its own; the loss
+ * carries its onset (`detail.fadeStartS`, before the loss) and the end of its recovery
+ * (`detail.fadeEndS`, after it). Counts are incidents. Spans never bridge a reception gap (`segmentStart`). Events carry the position at their
  * start (see positionAt) and, when given, the distance from home.
  *
  * Cost: O(n log n) (sorting for the percentiles). Pure: inputs are only read.
@@ -109,8 +180,8 @@ function mergeSpans(spans: { span: Span; cause: string }[]): { span: Span; cause
  */
 export function analyseLink(series: RunSeries, th: Thresholds, build?: BuildConfig, distanceFromHome?: ArrayLike<number>): LinkAnalysis {
   const { tS, n } = series;
-  const metric: LinkMetric | null = hasAny(series.lqPct) ? "lq" : hasAny(series.rssiPct) ? "rssi-pct" : hasAny(series.rssiDbm) ? "rssi-dbm" : null;
-  const m = metric === "lq" ? series.lqPct : metric === "rssi-pct" ? series.rssiPct : series.rssiDbm;
+  const chosen = chooseLinkMetric(series, build);
+  const { metric, values: m } = chosen;
   const unit = metric === null ? null : metric === "rssi-dbm" ? "dBm" : "%";
   const fadeThreshold =
     metric === "lq" ? th.lqFadePct
@@ -144,21 +215,34 @@ export function analyseLink(series: RunSeries, th: Thresholds, build?: BuildConf
   const linked = new Uint8Array(n).fill(1);
   for (const { span } of losses) linked.fill(0, span.startIndex, span.endIndex + 1);
 
+  // One incident, one event (DESIGN.md §10): a fade that runs into a loss is that loss's lead-in
+  // (and recovery), not an event of its own.
+  const touches = (f: Span, l: Span) => l.startS <= f.endS && l.endS >= f.startS;
+  const lone = fades.filter((f) => !losses.some((l) => touches(f, l.span)));
+  const leadIn = new Map<number, { fadeStartS?: number; fadeEndS?: number }>();
+  for (const f of fades) {
+    const hit = losses.map((l, k) => [l, k] as const).filter(([l]) => touches(f, l.span));
+    if (!hit.length) continue;
+    const [firstLoss, firstK] = hit[0];
+    const [lastLoss, lastK] = hit[hit.length - 1];
+    if (f.startS < firstLoss.span.startS) leadIn.set(firstK, { ...leadIn.get(firstK), fadeStartS: f.startS });
+    if (f.endS > lastLoss.span.endS) leadIn.set(lastK, { ...leadIn.get(lastK), fadeEndS: f.endS });
+  }
   const events: AnalysisEvent[] = [
-    ...fades.map((span) =>
+    ...lone.map((span) =>
       spanEvent("link-fade", span, series, {
         peak: minOver(m, span.startIndex, span.endIndex),
         threshold: fadeThreshold,
         distanceFromHome,
-        detail: { ...detailBase, exitThreshold, containsLoss: losses.some((l) => l.span.startS < span.endS && l.span.endS > span.startS) },
+        detail: { ...detailBase, exitThreshold },
       }),
     ),
-    ...losses.map(({ span, causes }) =>
+    ...losses.map(({ span, causes }, k) =>
       spanEvent("link-lost", span, series, {
         peak: metric === null ? null : minOver(m, span.startIndex, span.endIndex),
         threshold: causes.includes("floor") ? 0 : null,
         distanceFromHome,
-        detail: { ...detailBase, causes, minDurationS: th.lostMinS },
+        detail: { ...detailBase, causes, minDurationS: th.lostMinS, ...leadIn.get(k) },
       }),
     ),
   ].sort((a, b) => a.startS - b.startS);
@@ -183,6 +267,8 @@ export function analyseLink(series: RunSeries, th: Thresholds, build?: BuildConf
     summary: {
       metric,
       unit,
+      source: chosen.source,
+      note: chosen.note,
       fadeThreshold,
       exitThreshold,
       min: q(0),
@@ -190,11 +276,12 @@ export function analyseLink(series: RunSeries, th: Thresholds, build?: BuildConf
       p5: q(0.05),
       timeBelowThresholdS,
       timeLostS: losses.reduce((s, l) => s + l.span.endS - l.span.startS, 0),
-      fadeCount: fades.length,
+      fadeCount: lone.length,
       lostCount: losses.length,
       samples: values.length,
     },
     events,
     linked,
+    rcRssiPct: chosen.derived,
   };
 }

@@ -88,16 +88,53 @@ export function integrateMah(tS: ArrayLike<number>, currentA: ArrayLike<number>)
   return pairs ? sum / 3.6 : null;
 }
 
+/** Slack for clock values like 0.1·i that are not exact in binary (s). */
+const WINDOW_EPS_S = 1e-9;
+
 const medianOf = (v: number[]) => (v.length ? quantileSorted(v.sort((a, b) => a - b), 0.5) : null);
+
+/**
+ * Mean of the finite values of `v` whose times lie in [t − windowS/2, t + windowS/2) around each
+ * sample's time t (a centred moving average; the log is read after the run, so no lag is needed).
+ * NaN where the sample has no value; `windowS` ≤ 0 returns the values as they are. Times must not
+ * decrease.
+ *
+ * Cost: O(n) (two pointers). Pure.
+ *
+ * @example centredMean([0, 0.5, 1, 1.5], [4, 2, 4, 2], 1); // => [4, 3, 3, 3]
+ */
+export function centredMean(tS: ArrayLike<number>, v: ArrayLike<number>, windowS: number): Float64Array {
+  const n = v.length;
+  const out = new Float64Array(n).fill(NaN);
+  const half = windowS / 2;
+  let lo = 0;
+  let hi = 0; // window holds finite samples in [lo, hi)
+  let sum = 0;
+  let count = 0;
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(v[i]) || !Number.isFinite(tS[i])) continue;
+    if (!(windowS > 0)) {
+      out[i] = v[i];
+      continue;
+    }
+    // Half-open [t − w/2, t + w/2): a window of w s holds w × rate samples, so alternating jitter cancels.
+    for (; hi < n && !(tS[hi] >= tS[i] + half - WINDOW_EPS_S); hi++) if (Number.isFinite(v[hi]) && Number.isFinite(tS[hi])) (sum += v[hi]), count++;
+    for (; lo < hi && !(tS[lo] >= tS[i] - half - WINDOW_EPS_S); lo++) if (Number.isFinite(v[lo]) && Number.isFinite(tS[lo])) (sum -= v[lo]), count--;
+    out[i] = sum / count;
+  }
+  return out;
+}
 
 /**
  * Judges the battery of one run. Cells: `build.cells`, else {@link guessCells} of the resting
  * voltage — the median over the first {@link REST_WINDOW_S} s of resting samples (current < 1 A
  * where logged, else disarmed where logged, else any), or of the first 2 s when none rest.
  * Per-cell minimum under load and sag (resting − minimum under load). Capacity: the last logged
- * `usedMah`, else {@link integrateMah}. A **low-voltage** event: pack voltage per cell below
- * `th.lowCellV` for ≥ `th.lowVoltageMinS` (missing samples do not end it; a reception gap does),
- * peak = the lowest V/cell; only when the cell count is known.
+ * `usedMah`, else {@link integrateMah}. A **low-voltage** event: the pack voltage per cell,
+ * averaged over a centred `th.lowVoltageWindowS` window ({@link centredMean}), below `th.lowCellV`
+ * for ≥ `th.lowVoltageMinS` (missing samples do not end it; a reception gap does), peak = the
+ * lowest averaged V/cell (the lowest single sample is in `detail.lowestSampleV`); only when the
+ * cell count is known.
  *
  * Cost: O(n log n). Pure: inputs are only read.
  *
@@ -147,15 +184,24 @@ export function analysePower(series: RunSeries, th: Thresholds, build?: BuildCon
 
   const events: AnalysisEvent[] = [];
   if (cells) {
-    const low = findSpans(tS, (i) => v[i] / cells < th.lowCellV, {
+    // Loaded voltage jitters by tens of mV (DESIGN.md §10): judge its short mean, not single samples.
+    const smooth = centredMean(tS, v, th.lowVoltageWindowS);
+    const low = findSpans(tS, (i) => smooth[i] / cells < th.lowCellV, {
       minDurationS: th.lowVoltageMinS,
-      exit: (i) => v[i] / cells >= th.lowCellV,
+      exit: (i) => smooth[i] / cells >= th.lowCellV,
       breakBefore: (i) => series.segmentStart[i] === 1,
     });
     for (const span of low) {
       let peak = Infinity;
-      for (let i = span.startIndex; i <= span.endIndex; i++) if (v[i] / cells < peak) peak = v[i] / cells;
-      events.push(spanEvent("low-voltage", span, series, { peak, threshold: th.lowCellV, distanceFromHome, detail: { unit: "V/cell", cells, cellsFrom, minPackV: peak * cells } }));
+      let rawMin = Infinity;
+      for (let i = span.startIndex; i <= span.endIndex; i++) {
+        if (smooth[i] / cells < peak) peak = smooth[i] / cells;
+        if (v[i] / cells < rawMin) rawMin = v[i] / cells;
+      }
+      events.push(spanEvent("low-voltage", span, series, {
+        peak, threshold: th.lowCellV, distanceFromHome,
+        detail: { unit: "V/cell", cells, cellsFrom, minPackV: peak * cells, windowS: th.lowVoltageWindowS, lowestSampleV: rawMin * cells },
+      }));
     }
   }
 

@@ -8,7 +8,7 @@ import { rthDeviation, type RthDeviation } from "./rth-deviation";
 import { spanEvent } from "./span-event";
 import { findSpans } from "./spans";
 import type { AnalysisEvent, RoutePlanInput, RunSeries, Thresholds } from "./types";
-import { followWaypoints } from "./waypoint-progress";
+import { followWaypoints, type RouteStart } from "./waypoint-progress";
 
 /** Outputs of earlier steps that `analyseRoute` uses; all optional. */
 export interface RouteOptions {
@@ -20,6 +20,10 @@ export interface RouteOptions {
   usableFix?: ArrayLike<number>;
   /** Home (TrackResult.home); default: the first usable fix. */
   home?: { lat: number; lon: number } | null;
+  /** Mission start (findMissionStart): following begins there and the first leg runs from it to waypoint 1. */
+  start?: RouteStart;
+  /** Per sample: 1 where following is suspended besides return-to-home (land mode, mission not engaged). */
+  suspended?: ArrayLike<number>;
 }
 
 /** Cross-track statistics of one leg (waypoint i → i + 1) over the samples it was active; m. */
@@ -56,14 +60,18 @@ export interface RouteResult {
 }
 
 /**
- * Analyses a run against its route plan. Leg i runs from waypoint i to i + 1; the active leg, XTE,
- * ATD and waypoint outcomes follow `followWaypoints`: a waypoint is *reached* at the first fix
- * within `radiusM ?? th.acceptanceRadiusM` and *missed* when passed abeam (or its corner cut)
- * without entering. XTE/ATD are measured in a plane anchored at each leg's start.
- * `off-route`: |XTE| > `plan.corridorM ?? th.corridorM` for ≥ `th.offRouteMinS` (a fix gap longer than
- * that, at least 1 s, or a segment start breaks it; peak = max |XTE|, position at its start).
+ * Analyses a run against its route plan. With `opts.start` the first leg runs from the mission
+ * start to waypoint 1, then leg i from waypoint i to i + 1; the active leg, XTE, ATD and waypoint
+ * outcomes follow `followWaypoints`: a waypoint is *reached* at the first fix within
+ * `radiusM ?? th.acceptanceRadiusM` and *missed* when passed abeam (or its corner cut) without
+ * entering. XTE/ATD are measured in a plane anchored at each leg's start.
+ * `off-route`: |XTE| > `plan.corridorM ?? th.corridorM` for ≥ `th.offRouteMinS` without a break,
+ * ending only when |XTE| falls below corridor − `th.offRouteExitMarginM` (hysteresis, so noise at
+ * the edge gives one event, DESIGN.md §10); a fix gap longer than `offRouteMinS` (at least 1 s) or
+ * a segment start ends it; peak = max |XTE|, position at its start.
  * Inside `opts.rthSpans` the route is suspended and the deviation from the straight line home is
- * measured instead (see `rthDeviation`).
+ * measured instead (see `rthDeviation`); inside `opts.suspended` (landing, mission switched off)
+ * it is suspended too.
  *
  * Cost: O(n · (1 + open waypoints)) plus O(s log s) per leg for the percentile. Pure.
  *
@@ -90,7 +98,7 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
     if (!(radius[j] > 0)) throw new RangeError(`analyseRoute: waypoint "${w.name}" needs a radius > 0 m, got ${radius[j]}`);
   });
   const usable = opts.usableFix ?? Uint8Array.from(classifyFixes(series, th.minSats), (c) => (c === FIX_GOOD ? 1 : 0));
-  const inRth = new Uint8Array(n);
+  const inRth = new Uint8Array(n); // 1 where following is suspended: return-to-home, or opts.suspended
   // One pass over the samples with a pointer into the time-ordered spans: O(n + spans).
   const spansSorted = [...(opts.rthSpans ?? [])].sort((a, b) => a.startS - b.startS);
   for (let i = 0, k = 0; i < n && spansSorted.length; i++) {
@@ -102,8 +110,9 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
       }
     }
   }
+  if (opts.suspended) for (let i = 0; i < n; i++) if (opts.suspended[i] === 1) inRth[i] = 1;
   const dist = opts.distanceFromHome;
-  const { xteM, atdM, activeLeg, legLengthM, reached, missed, next, events } = followWaypoints(series, wps, radius, usable, inRth, dist);
+  const { xteM, atdM, activeLeg, legLengthM, legFrom, legTo, reached, missed, next, events } = followWaypoints(series, wps, radius, usable, inRth, dist, opts.start);
 
   // Off-route: spans over usable fixes and RTH samples (which end a span); segment starts on skipped rows still break.
   const tRoute = new Float64Array(n).fill(NaN);
@@ -115,8 +124,12 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
     tRoute[i] = tS[i];
     if (pending) (brk[i] = 1), (pending = false);
   }
+  const exitBelow = corridor - th.offRouteExitMarginM;
   const offSpans = findSpans(tRoute, (i) => Math.abs(xteM[i]) > corridor, {
     minDurationS: th.offRouteMinS,
+    confirmS: th.offRouteMinS,
+    // NaN (suspended, no leg) ends it too: only a measured return inside the margin or a pause ends an excursion.
+    exit: (i) => !(Math.abs(xteM[i]) >= exitBelow),
     breakBefore: (i) => brk[i] === 1,
     maxGapS: Math.max(th.offRouteMinS, 1), // an unobserved stretch that long is not claimed as off-route
   });
@@ -126,7 +139,7 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
     const L = activeLeg[pi];
     events.push(spanEvent("off-route", s, series, {
       peak: Math.abs(xteM[pi]), threshold: corridor, distanceFromHome: dist,
-      detail: { unit: "m", legIndex: L, from: wps[L].name, to: wps[L + 1].name, side: xteM[pi] > 0 ? "right" : "left", peakS: tS[pi] },
+      detail: { unit: "m", legIndex: L, from: legFrom[L], to: legTo[L], side: xteM[pi] > 0 ? "right" : "left", peakS: tS[pi], exitBelowM: exitBelow },
     }));
   }
   events.sort((a, b) => a.startS - b.startS);
@@ -144,7 +157,7 @@ export function analyseRoute(series: RunSeries, plan: RoutePlanInput, th: Thresh
     for (const x of v) sq += x * x;
     const has = v.length > 0;
     return {
-      index: L, from: wps[L].name, to: wps[L + 1].name, lengthM, samples: v.length,
+      index: L, from: legFrom[L], to: legTo[L], lengthM, samples: v.length,
       rmsXteM: has ? Math.sqrt(sq / v.length) : null,
       p95XteM: has ? quantileSorted(v as unknown as number[], 0.95) : null, // its .d.ts says number[]; it only indexes
       maxXteM: has ? v[v.length - 1] : null,

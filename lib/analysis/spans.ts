@@ -30,6 +30,13 @@ export interface FindSpansOptions {
   breakBefore?: (i: number) => boolean;
   /** A time step longer than this (s) is a gap, like `breakBefore`. Default: no limit. */
   maxGapS?: number;
+  /**
+   * Debounce for use with `exit`: a span is kept only when it holds a run of consecutive samples
+   * where `predicate` is true lasting at least this long (s; from the run's first sample to the
+   * sample after it). With hysteresis alone, a value hovering inside the dead band would keep a span
+   * open on one noisy sample; this asks for the condition itself to last. Default 0.
+   */
+  confirmS?: number;
 }
 
 /** Durations are compared with this slack (s) so 10 Hz clocks like 0.1·i keep exact boundaries. */
@@ -58,17 +65,29 @@ export const SPAN_EPSILON_S = 1e-9;
  * // => [{ startIndex: 2, endIndex: 6, startS: 0.2, endS: 0.7 }]
  */
 export function findSpans(tS: ArrayLike<number>, predicate: (i: number) => boolean, opts: FindSpansOptions): Span[] {
-  const { minDurationS, exit, breakBefore, maxGapS = Infinity } = opts;
+  const { minDurationS, exit, breakBefore, maxGapS = Infinity, confirmS = 0 } = opts;
   if (!(minDurationS >= 0)) throw new RangeError(`minDurationS must be ≥ 0, got ${minDurationS}`);
+  if (!(confirmS >= 0)) throw new RangeError(`confirmS must be ≥ 0, got ${confirmS}`);
   const leaves = exit ?? ((i: number) => !predicate(i));
   const out: Span[] = [];
   let start = -1; // first sample of the open span, -1 when none
   let last = -1; // last sample inside the open span
   let prev = -1; // previous sample with a finite time
+  let runStart = -1; // first sample of the current run where predicate holds, -1 when none
+  let confirmed = false;
 
+  const endRun = (t: number) => {
+    if (runStart >= 0 && t - tS[runStart] + SPAN_EPSILON_S >= confirmS) confirmed = true;
+    runStart = -1;
+  };
   const close = (endS: number) => {
-    if (endS - tS[start] + SPAN_EPSILON_S >= minDurationS) out.push({ startIndex: start, endIndex: last, startS: tS[start], endS });
+    endRun(endS);
+    if (confirmed && endS - tS[start] + SPAN_EPSILON_S >= minDurationS) out.push({ startIndex: start, endIndex: last, startS: tS[start], endS });
     start = -1;
+  };
+  const open = (i: number) => {
+    start = last = runStart = i;
+    confirmed = confirmS === 0;
   };
 
   for (let i = 0; i < tS.length; i++) {
@@ -79,9 +98,16 @@ export function findSpans(tS: ArrayLike<number>, predicate: (i: number) => boole
     if (start >= 0 && broken) close(tS[last]);
     if (start >= 0) {
       if (leaves(i)) close(t);
-      else last = i;
+      else {
+        last = i;
+        if (confirmS > 0) {
+          if (predicate(i)) {
+            if (runStart < 0) runStart = i;
+          } else endRun(t);
+        }
+      }
     }
-    if (start < 0 && predicate(i)) start = last = i;
+    if (start < 0 && predicate(i)) open(i);
   }
   if (start >= 0) close(tS[last]);
   return out;

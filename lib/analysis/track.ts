@@ -2,8 +2,10 @@
  * The track (DESIGN.md §5 "Track"): home, distance travelled, distance from home, speed, GPS
  * quality, and the `fix-lost` and `position-jump` events.
  */
+import type { HomeSource } from "./evidence";
 import { geodesicDistance, makeLocalProjection } from "./geodesy";
 import { classifyFixes, FIX_BAD, FIX_GOOD, fixLostSpans } from "./gps-fix";
+import { placeHome } from "./home";
 import { trackSteps } from "./position-jumps";
 import type { AnalysisEvent, RunSeries, Thresholds } from "./types";
 
@@ -21,9 +23,13 @@ export interface TrackPoint {
 }
 /** What `analyseTrack` finds; distances m, speeds m/s, times s. */
 export interface TrackResult {
-  /** First good fix of the run, or null when the log has none. */
+  /** Where home was placed (see placeHome), or null when the log has no usable fix. */
   home: TrackPoint | null;
-  /** Sum of credited steps between consecutive good fixes, m (none across a segment start or a jump). */
+  /** Which rule placed home. */
+  homeSource: HomeSource | null;
+  /** First armed sample, -1 when the log never shows the vehicle armed. */
+  armedIndex: number;
+  /** Sum of credited steps between consecutive good fixes from home on, m (none across a segment start or a jump). */
   distanceM: number;
   /** Largest geodesic distance from home, m; null without a fix. */
   maxDistanceFromHomeM: number | null;
@@ -32,7 +38,7 @@ export interface TrackResult {
   meanSpeedMps: number | null;
   /** "log" when the log carries ground speed, "steps" when speed comes from positions. */
   speedSource: "log" | "steps" | null;
-  /** Time with HDOP above `th.hdopWarn`, s (each value held until the next; not across gaps or lost fixes). */
+  /** Time with HDOP above `th.hdopWarn` from home on, s (each value held until the next; not across gaps or lost fixes). */
   hdopWarnS: number;
   maxHdop: number | null;
   /** Total time inside fix-lost events, s. */
@@ -52,18 +58,21 @@ const orNull = (v: number) => (Number.isFinite(v) ? v : null);
 
 /**
  * Analyses the track of a run. A good fix has finite lat/lon (not 0,0), fix type ≠ 0 and at least
- * `th.minSats` satellites when those are logged; home is the first one. Steps are measured in a
- * local plane (see `trackSteps`), distance from home in a plane at home within {@link NEAR_HOME_M}
- * and by geodesic beyond; the maximum is always a geodesic. Max and mean speed come from the
- * logged ground speed when present, else from credited steps (max over ≥ {@link SPEED_WINDOW_S}
- * windows; mean = distance / time of credited steps). `fix-lost` spans follow `fixLostSpans`;
- * `position-jump` events follow `trackSteps` (peak = implied speed, m/s).
+ * `th.minSats` satellites when those are logged; home follows {@link placeHome} (the first good fix
+ * at or after arming, DESIGN.md §10). Everything measured "on the run" starts at home: distance
+ * travelled, distance from home (NaN before it), speeds, HDOP time and lost fixes — the walk from
+ * the car and a cold start's poor fixes are not the run. Steps are measured in a local plane (see
+ * `trackSteps`), distance from home in a plane at home within {@link NEAR_HOME_M} and by geodesic
+ * beyond; the maximum is always a geodesic. Max and mean speed come from the logged ground speed
+ * when present, else from credited steps (max over ≥ {@link SPEED_WINDOW_S} windows; mean =
+ * distance / time of credited steps). `fix-lost` spans follow `fixLostSpans`; `position-jump`
+ * events follow `trackSteps` (peak = implied speed, m/s).
  *
  * Cost: O(n) plus O(n log n) for the typical fix interval; one geodesic per sample only beyond
  * {@link NEAR_HOME_M}. Pure: reads `series`, returns new arrays.
  *
  * @param series the run
- * @param th thresholds (minSats, hdopWarn, jumpSpeedMps read)
+ * @param th thresholds (minSats, homeMinSats, homeMaxHdop, hdopWarn, jumpSpeedMps read)
  * @returns the track summary, per-sample distance from home and usable-fix mask, and events
  * @throws {RangeError} when `th.jumpSpeedMps` is not positive
  * @example
@@ -84,7 +93,8 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
   let usableFixes = 0;
   let far = -1;
   for (let i = 0; i < n; i++) usableFix[i] = good[i] && !steps.outlier[i] ? 1 : 0;
-  for (let i = 0; i < n && homeIndex < 0; i++) if (usableFix[i]) homeIndex = i;
+  const placed = placeHome(series, usableFix, th);
+  homeIndex = placed.index;
   if (homeIndex >= 0) {
     const h = point(series, homeIndex);
     const plane = makeLocalProjection(h.lat, h.lon);
@@ -101,13 +111,14 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
   const home = homeIndex >= 0 ? point(series, homeIndex) : null;
   const maxDistanceFromHomeM = home && far >= 0 ? geodesicDistance(home.lat, home.lon, lat[far], lon[far]) : null;
 
-  // Distance and speed from credited steps.
+  // Distance and speed from credited steps after home.
+  const from = Math.max(0, homeIndex);
   let distanceM = 0;
   let stepTimeS = 0;
   let maxStepMps = -Infinity;
   let winM = 0;
   let winS = 0;
-  for (let i = 0; i < n; i++) {
+  for (let i = from + 1; i < n; i++) {
     if (!Number.isFinite(steps.stepM[i])) continue;
     distanceM += steps.stepM[i];
     stepTimeS += steps.stepS[i];
@@ -122,7 +133,7 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
   let logMax = -Infinity;
   let logSum = 0;
   let logCount = 0;
-  for (let i = 0; i < n; i++) {
+  for (let i = from; i < n; i++) {
     const v = speedMps[i];
     if (!(v >= 0) || !Number.isFinite(v)) continue;
     logMax = Math.max(logMax, v);
@@ -135,9 +146,9 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
   let hdopWarnS = 0;
   let maxHdop = -Infinity;
   let held = NaN;
-  for (let i = 0; i < n; i++) {
+  for (let i = from; i < n; i++) {
     if (segmentStart[i] === 1) held = NaN;
-    else if (i > 0 && held > th.hdopWarn && tS[i] > tS[i - 1]) hdopWarnS += tS[i] - tS[i - 1];
+    else if (i > from && held > th.hdopWarn && tS[i] > tS[i - 1]) hdopWarnS += tS[i] - tS[i - 1];
     if (classes[i] === FIX_BAD) held = NaN;
     else if (classes[i] === FIX_GOOD && Number.isFinite(hdop[i])) {
       held = hdop[i];
@@ -188,6 +199,8 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
 
   return {
     home,
+    homeSource: placed.source,
+    armedIndex: placed.armedIndex,
     distanceM,
     maxDistanceFromHomeM,
     farthest: far >= 0 ? point(series, far) : null,

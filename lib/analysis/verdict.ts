@@ -1,3 +1,5 @@
+import { assessedParts, FAILSAFE_ACT_RESULTS, type AssessedPart, type NotAssessed } from "./evidence";
+
 /** clear: nothing fired · watch: look at it · act: fix before the next run (DESIGN.md §5). */
 export type VerdictLevel = "clear" | "watch" | "act";
 
@@ -14,6 +16,8 @@ export interface VerdictInput {
   positionJumps: number;
   /** Seconds with HDOP above the warning threshold. */
   hdopWarnS?: number;
+  /** Parts the log could not show (DESIGN.md §10 "Evidence, not absence"); their rules are not read. */
+  notAssessed?: NotAssessed[];
 }
 
 /** Result of judgeRun. */
@@ -21,6 +25,10 @@ export interface Verdict {
   level: VerdictLevel;
   /** One short sentence per rule that fired, act rules first; empty when clear. */
   reasons: string[];
+  /** Parts that were assessed and where nothing fired. */
+  held: AssessedPart[];
+  /** Parts the log could not show, and why: "clear" is only ever clear for what was assessed. */
+  notAssessed: NotAssessed[];
 }
 
 /** "once", "twice", "3 times". */
@@ -40,8 +48,11 @@ const FAILSAFE_REASONS: Record<string, string> = {
  * HDOP above the warning); otherwise **clear** (nothing fired). Every rule that fired gives a
  * plain sentence with its count, so "act" always says why — watch reasons are listed under act too.
  *
- * Counts that are zero, negative or NaN do not fire. failsafeResult is matched ignoring case,
- * spaces and underscores ("Wrong action" = "wrong-action"); "pass" or unknown values fire nothing.
+ * Counts are incidents (a fade that ran into a loss is counted once, as the loss). Counts that are
+ * zero, negative or NaN do not fire. failsafeResult is matched ignoring case, spaces and
+ * underscores ("Wrong action" = "wrong-action"); "pass" or unknown values fire nothing.
+ * `held` lists the parts assessed where nothing fired; `notAssessed` is passed through, and a part
+ * in it is never "held".
  *
  * Cost: O(number of missed waypoints).
  *
@@ -58,7 +69,7 @@ export function judgeRun(input: VerdictInput): Verdict {
 
   if (fired(input.linkLost)) act.push(`Link lost ${times(input.linkLost)}`);
   const failsafe = input.failsafeResult?.trim().toLowerCase().replace(/[\s_]+/g, "-");
-  if (failsafe && Object.hasOwn(FAILSAFE_REASONS, failsafe)) act.push(FAILSAFE_REASONS[failsafe]);
+  if (failsafe && FAILSAFE_ACT_RESULTS.includes(failsafe) && Object.hasOwn(FAILSAFE_REASONS, failsafe)) act.push(FAILSAFE_REASONS[failsafe]);
   if (fired(input.lowVoltage)) act.push(`Low voltage ${times(input.lowVoltage)}`);
   const missed = input.waypointsMissed;
   if (missed.length > 0) {
@@ -74,7 +85,16 @@ export function judgeRun(input: VerdictInput): Verdict {
   if (fired(input.hdopWarnS)) watch.push(`HDOP above the warning level for ${formatSeconds(input.hdopWarnS)}`);
 
   const level: VerdictLevel = act.length > 0 ? "act" : watch.length > 0 ? "watch" : "clear";
-  return { level, reasons: [...act, ...watch] };
+  const notAssessed = input.notAssessed ?? [];
+  const firedFor: Record<AssessedPart, boolean> = {
+    link: fired(input.linkLost) || fired(input.linkFades),
+    failsafe: failsafe !== "pass",
+    route: fired(input.offRoute) || missed.length > 0,
+    battery: fired(input.lowVoltage),
+    gps: fired(input.fixLost) || fired(input.positionJumps) || fired(input.hdopWarnS),
+  };
+  const held = assessedParts.filter((p) => !firedFor[p] && !notAssessed.some((g) => g.what === p));
+  return { level, reasons: [...act, ...watch], held, notAssessed };
 }
 
 /** 0.4 s, 12 s, 95 s — one decimal below 10 s. */

@@ -15,6 +15,9 @@ export interface WaypointProgress {
   activeLeg: Int32Array;
   /** Leg lengths in the plane of each leg's start, m. */
   legLengthM: number[];
+  /** Names at each leg's ends (the first leg starts at {@link START_NAME} when a start was given). */
+  legFrom: string[];
+  legTo: string[];
   reached: string[];
   missed: string[];
   /** Index of the first waypoint neither reached nor missed (= waypoint count when all were). */
@@ -24,6 +27,17 @@ export interface WaypointProgress {
 }
 
 interface Leg { plane: LocalProjection; b: XY; lengthM: number }
+
+/** Where route following begins: the first leg runs from here to the plan's first waypoint. */
+export interface RouteStart {
+  /** Sample at which following begins; earlier samples are not followed. */
+  index: number;
+  lat: number;
+  lon: number;
+}
+
+/** The name the first leg starts from when it starts at the mission start. */
+export const START_NAME = "Start";
 interface Inside { j: number; first: number; last: number; closestD: number; closestI: number }
 
 const unit = (v: XY): XY => {
@@ -32,8 +46,10 @@ const unit = (v: XY): XY => {
 };
 
 /**
- * Follows the fixes along the plan. The route starts when waypoint 0 is reached or passed; then
- * leg k − 1 is active while waypoint k is the current one. Waypoint k is *reached* at the first
+ * Follows the fixes along the plan. With a `start` (the mission start, DESIGN.md §10), following
+ * begins at its sample and the first leg runs from its position to waypoint 0, which is reached or
+ * missed on that leg like any other; without one, the route starts when waypoint 0 is reached or
+ * passed. Leg k − 1 is active while waypoint k is the current one (legs counted from the start). Waypoint k is *reached* at the first
  * fix within `radiusM[k]` (the event lasts while the run stays inside; peak = closest approach) and
  * *missed* when the run passes it without entering (peak = closest approach while it was current):
  * - "abeam": along-track on the incoming leg ≥ the leg's length (for waypoint 0: along-track on
@@ -52,6 +68,7 @@ const unit = (v: XY): XY => {
  * @param usable 1 at a usable fix
  * @param skip 1 at samples where the route is suspended
  * @param distanceFromHome optional per-sample distance from home, m (event positions)
+ * @param start optional start of following (sample and position)
  * @returns per-sample XTE/ATD/leg, outcomes and events
  * @example
  * followWaypoints(series, plan.waypoints, [2, 2, 2], usable, new Uint8Array(series.n)).reached; // => ["A", "B", "C"]
@@ -63,9 +80,13 @@ export function followWaypoints(
   usable: ArrayLike<number>,
   skip: ArrayLike<number>,
   distanceFromHome?: ArrayLike<number>,
+  start?: RouteStart,
 ): WaypointProgress {
   const { n, tS, lat, lon } = series;
-  const wps = waypoints;
+  // With a start, it is waypoint 0 of the walk: already passed, and the first leg runs from it.
+  const wps = start ? [{ name: START_NAME, lat: start.lat, lon: start.lon }, ...waypoints] : waypoints;
+  const radii = start ? [0, ...radiusM] : radiusM;
+  const first = start ? 1 : 0; // the first waypoint of the plan
   const m = wps.length;
   const planes = wps.map((w) => makeLocalProjection(w.lat, w.lon));
   const legs: Leg[] = wps.slice(0, -1).map((_, i) => {
@@ -90,11 +111,11 @@ export function followWaypoints(
   const dAt = (i: number) => (distanceFromHome && Number.isFinite(distanceFromHome[i]) ? distanceFromHome[i] : null);
   const wpEvent = (kind: "waypoint-reached" | "waypoint-missed", j: number, startS: number, endS: number, ci: number, cd: number, extra: object) =>
     events.push({
-      kind, startS, endS, lat: lat[ci], lon: lon[ci], distanceFromHomeM: dAt(ci), peak: cd, threshold: radiusM[j],
-      detail: { durationS: endS - startS, unit: "m", waypoint: wps[j].name, index: j, closestS: tS[ci], ...extra },
+      kind, startS, endS, lat: lat[ci], lon: lon[ci], distanceFromHomeM: dAt(ci), peak: cd, threshold: radii[j],
+      detail: { durationS: endS - startS, unit: "m", waypoint: wps[j].name, index: j - first, closestS: tS[ci], ...extra },
     });
 
-  let k = 0; // current waypoint
+  let k = first; // current waypoint
   let closestD = Infinity;
   let closestI = -1;
   let inside: Inside[] = [];
@@ -106,13 +127,14 @@ export function followWaypoints(
     if (ctLeg !== L) (ct = crossTrack(legs[L].plane.toXY(lat[cur], lon[cur]), [0, 0], legs[L].b)), (ctLeg = L);
     return ct;
   };
-  for (let i = 0; i < n; i++) {
+  const from = start ? start.index : 0;
+  for (let i = from; i < n; i++) {
     if (usable[i] !== 1) continue;
     const still: Inside[] = [];
     for (const o of inside) {
       const [x, y] = planes[o.j].toXY(lat[i], lon[i]);
       const d = Math.sqrt(x * x + y * y);
-      if (d > radiusM[o.j]) {
+      if (d > radii[o.j]) {
         wpEvent("waypoint-reached", o.j, tS[o.first], tS[i], o.closestI, o.closestD, {});
         continue;
       }
@@ -128,7 +150,7 @@ export function followWaypoints(
       const pk = planes[k].toXY(lat[i], lon[i]);
       const d = Math.sqrt(pk[0] * pk[0] + pk[1] * pk[1]);
       if (d < closestD) (closestD = d), (closestI = i);
-      if (d <= radiusM[k]) {
+      if (d <= radii[k]) {
         inside.push({ j: k, first: i, last: i, closestD: d, closestI: i });
         reached.push(wps[k].name);
       } else {
@@ -136,7 +158,7 @@ export function followWaypoints(
         const c = on(k === 0 ? 0 : k - 1);
         const bis = bisector[k];
         const abeam = k === 0 ? c.atdM >= 0 : c.atdM >= c.legLengthM;
-        const corner = !abeam && bis !== null && pk[0] * bis[0] + pk[1] * bis[1] >= 0 && d >= closestD + radiusM[k];
+        const corner = !abeam && bis !== null && pk[0] * bis[0] + pk[1] * bis[1] >= 0 && d >= closestD + radii[k];
         if (!abeam && !corner) break;
         missed.push(wps[k].name);
         wpEvent("waypoint-missed", k, tS[i], tS[i], closestI, closestD, { how: abeam ? "abeam" : "corner" });
@@ -153,5 +175,5 @@ export function followWaypoints(
     }
   }
   for (const o of inside) wpEvent("waypoint-reached", o.j, tS[o.first], tS[o.last], o.closestI, o.closestD, {});
-  return { xteM, atdM, activeLeg, legLengthM: legs.map((l) => l.lengthM), reached, missed, next: k, events };
+  return { xteM, atdM, activeLeg, legLengthM: legs.map((l) => l.lengthM), legFrom: legs.map((_, L) => wps[L].name), legTo: legs.map((_, L) => wps[L + 1].name), reached, missed, next: k - first, events };
 }

@@ -82,6 +82,7 @@ export interface SeriesMeta {
 export interface DerivedSeries {
   distanceFromHomeM?: ArrayLike<number> | null;
   xteM?: ArrayLike<number> | null;
+  rssiRcPct?: ArrayLike<number> | null;
 }
 
 const NONE = 0xffffffff;
@@ -363,13 +364,17 @@ export interface TrackOverview {
 /**
  * At most ~TRACK_POINTS samples with a position for the map: consecutive position samples in equal
  * buckets, from each the one with the worst link (the last link value seen, so logs that write
- * position and link on different rows still count), else the first. A new piece starts after a
+ * position and link on different rows still count), else the first. The link is the judged
+ * metric's column, else `rcRssiPct` (RSSI read from the link sheet's channel), else SNR. A new piece starts after a
  * break or when no position came for longer than `positionGapS`.
  */
-export function buildTrack(series: RunSeries, br: Breaks, positionGapS: number | null): TrackOverview {
+export function buildTrack(series: RunSeries, br: Breaks, positionGapS: number | null, rcRssiPct?: ArrayLike<number> | null): TrackOverview {
   const { n, tS, lat, lon, fixType } = series;
-  const metric = trackMetrics.find((f) => hasAny(series[f])) ?? null;
-  const m: ArrayLike<number> | null = metric ? series[metric] : null;
+  // The analysis' order: a logged LQ or RSSI column, then RSSI read from the link sheet's channel, then SNR.
+  const logged = trackMetrics.find((f) => f !== "snrDb" && hasAny(series[f]));
+  const fromChannel = !logged && rcRssiPct && rcRssiPct.length === n && hasAny(rcRssiPct) ? rcRssiPct : null;
+  const metric: TrackMetric | null = logged ?? (fromChannel ? "rssiPct" : hasAny(series.snrDb) ? "snrDb" : null);
+  const m: ArrayLike<number> | null = fromChannel ?? (metric ? series[metric] : null);
   let positions = 0;
   for (let i = 0; i < n; i++) if (hasPosition(lat[i], lon[i], fixType[i])) positions++;
   const per = Math.max(1, Math.ceil(positions / TRACK_POINTS));
@@ -510,7 +515,7 @@ export function* seriesBlobs(series: RunSeries, derived: DerivedSeries = {}): Ge
   }
 
   const positionGapS = positionStepS > 0 ? Math.max(GAP_FACTOR * positionStepS, gapStepS ?? 0) : gapStepS;
-  const track = buildTrack(series, br, positionGapS);
+  const track = buildTrack(series, br, positionGapS, derived.rssiRcPct);
   for (const f of ["t", "lat", "lon", "link", "breaks"] as const) yield { kind: "track", bucketSize: 0, field: f, chunk: 0, data: track[f] };
 
   const meta: SeriesMeta = {

@@ -9,6 +9,7 @@ import { sampleFields } from "@/lib/parsers/types";
 export const derivedFields = [
   "distanceFromHomeM", // m from home (first good fix), NaN before it
   "xteM", // signed cross-track error to the active leg, m (+ right), NaN without a route plan
+  "rssiRcPct", // RSSI % read from the link sheet's RSSI channel (1000–2000 µs), when that is the judged metric
 ] as const;
 
 /** Every field a chart may ask for: the stored sample fields (without tS) and the derived ones. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseLink } from "@/lib/analysis/link";
 import { defaultThresholds } from "@/lib/analysis/thresholds";
-import { frozenCopy, makeSeries } from "@/tests/helpers/series";
+import { frozenCopy, makeSeries, rcColumn } from "@/tests/helpers/series";
 
 // Every series here is synthetic, written for these tests (our own data). 10 Hz: sample i at i/10 s.
 const th = defaultThresholds("ground"); // LQ 70 %, RSSI 40 %, −100 dBm + 10 dB, 0.5 s, 5 pt / 3 dB, 0.1 s
@@ -14,7 +14,7 @@ describe("analyseLink", () => {
     const r = analyseLink(makeSeries(30, { lqPct: dip(30, 10, 20, 50) }), th);
     expect(r.events).toHaveLength(1);
     expect(r.events[0]).toMatchObject({ kind: "link-fade", startS: 1, endS: 2, peak: 50, threshold: 70 });
-    expect(r.events[0].detail).toMatchObject({ metric: "lq", unit: "%", exitThreshold: 75, containsLoss: false });
+    expect(r.events[0].detail).toMatchObject({ metric: "lq", unit: "%", exitThreshold: 75 });
     expect(r.summary).toMatchObject({ metric: "lq", fadeCount: 1, lostCount: 0, fadeThreshold: 70, exitThreshold: 75 });
   });
 
@@ -47,15 +47,26 @@ describe("analyseLink", () => {
     expect(analyseLink(makeSeries(60, { lqPct: dip(60, 20, 21, 0) }, { hz: 20 }), th).events).toEqual([]); // 0.05 s
   });
 
-  it("reports a loss inside a fade as a link-lost and keeps the fade whole around it", () => {
+  // DESIGN.md §10 "One incident, one event": the fade that runs into a loss is the loss's lead-in.
+  it("folds a fade that runs into a loss into the loss event, keeping the fade's onset and recovery", () => {
     const lq = (i: number) => (i >= 15 && i < 20 ? 0 : i >= 10 && i < 30 ? 40 : 100);
     const r = analyseLink(makeSeries(40, { lqPct: lq }), th);
-    expect(r.events.map((e) => [e.kind, e.startS, e.endS, e.peak])).toEqual([
-      ["link-fade", 1, 3, 0],
-      ["link-lost", 1.5, 2, 0],
-    ]);
-    expect(r.events[0].detail.containsLoss).toBe(true);
+    expect(r.events.map((e) => [e.kind, e.startS, e.endS, e.peak])).toEqual([["link-lost", 1.5, 2, 0]]);
+    expect(r.events[0].detail).toMatchObject({ fadeStartS: 1, fadeEndS: 3 });
+    expect(r.summary).toMatchObject({ fadeCount: 0, lostCount: 1 });
     expect(r.summary.timeLostS).toBeCloseTo(0.5, 12);
+  });
+
+  it("keeps a fade apart from a loss it does not touch, and gives a loss with no fade around it no lead-in", () => {
+    // fade 1.0–2.0 s (LQ 50), recovered, then LQ straight to 0 from 3.0 to 3.5 s
+    const lq = (i: number) => (i >= 10 && i < 20 ? 50 : i >= 30 && i < 35 ? 0 : 100);
+    const r = analyseLink(makeSeries(50, { lqPct: lq }), th);
+    expect(r.events.map((e) => [e.kind, e.startS, e.endS])).toEqual([
+      ["link-fade", 1, 2],
+      ["link-lost", 3, 3.5],
+    ]);
+    expect(r.events[1].detail).not.toHaveProperty("fadeStartS");
+    expect(r.summary).toMatchObject({ fadeCount: 1, lostCount: 1 });
   });
 
   it("fires link-lost while the failsafe flag is raised even with a good metric", () => {
@@ -150,5 +161,41 @@ describe("analyseLink", () => {
     const r = analyseLink(s, th);
     expect(analyseLink(frozenCopy(s), th)).toEqual(r);
     expect(JSON.stringify(Array.from(s.lqPct))).toBe(before);
+  });
+
+  // DESIGN.md §10 "RSSI often travels on a spare RC channel": 1000–2000 µs = 0–100 % (common practice).
+  describe("RSSI from the link sheet's RSSI channel", () => {
+    const sheet = (channel: number) => ({ vehicleType: "ground" as const, channels: [{ channel, function: "rssi" }] });
+    const rc12 = (us: (i: number) => number, n = 40) => makeSeries(n, { rc: rcColumn(n, { 12: us }), armed: () => 1, voltageV: () => 16 });
+
+    it("reads RSSI % from the channel when the log has no link column, with its source named", () => {
+      const r = analyseLink(rc12((i) => (i >= 10 && i < 20 ? 1000 : 1950)), th, sheet(12));
+      expect(r.summary).toMatchObject({ metric: "rssi-pct", unit: "%", source: { kind: "rc-channel", channel: 12 }, note: null, lostCount: 1, min: 0, median: 95 });
+      expect(r.events.map((e) => [e.kind, e.startS, e.endS])).toEqual([["link-lost", 1, 2]]);
+      expect(r.rcRssiPct?.[0]).toBe(95);
+      expect(r.rcRssiPct?.[10]).toBe(0);
+    });
+
+    it("clamps values outside 1000–2000 µs and treats a missing pulse (0) as no value", () => {
+      const r = analyseLink(rc12((i) => (i === 0 ? 2100 : i === 1 ? 900 : i === 2 ? 0 : 1500), 5), th, sheet(12));
+      expect(Array.from(r.rcRssiPct!)).toEqual([100, 0, NaN, 50, 50]);
+    });
+
+    it("prefers a logged link column and says the sheet's channel was not used", () => {
+      const n = 30;
+      const s = makeSeries(n, { lqPct: () => 100, rc: rcColumn(n, { 12: () => 1900 }) });
+      const r = analyseLink(s, th, sheet(12));
+      expect(r.summary).toMatchObject({ metric: "lq", source: { kind: "column" } });
+      expect(r.summary.note).toMatch(/channel 12.*LQ column was used/);
+      expect(r.rcRssiPct).toBeNull();
+    });
+
+    it("has no metric without a sheet channel, and says so when the named channel is empty", () => {
+      const s = rc12(() => 1500);
+      expect(analyseLink(s, th).summary).toMatchObject({ metric: null, source: null, note: null });
+      const r = analyseLink(s, th, sheet(14));
+      expect(r.summary).toMatchObject({ metric: null, source: null });
+      expect(r.summary.note).toMatch(/channel 14.*no values/);
+    });
   });
 });

@@ -1,11 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { analysePower, guessCells, integrateMah } from "@/lib/analysis/power";
+import { analysePower, centredMean, guessCells, integrateMah } from "@/lib/analysis/power";
 import { defaultThresholds } from "@/lib/analysis/thresholds";
 import { frozenCopy, makeSeries } from "@/tests/helpers/series";
 
 // Every series here is synthetic, written for these tests (our own data). 10 Hz unless stated.
 // LiPo per-cell limits (3.3–4.35 V, 3.8 V nominal, 3.5 V low) are common practice, not a source.
-const th = defaultThresholds("multirotor"); // 3.5 V/cell for ≥ 2 s
+const th = defaultThresholds("multirotor"); // 3.5 V/cell for ≥ 2 s, on a 1 s centred mean
+/** The same without the smoothing window: step edges stay exact for the duration tests. */
+const raw = { ...th, lowVoltageWindowS: 0 };
 const build3s = { vehicleType: "multirotor" as const, cells: 3 };
 
 describe("guessCells", () => {
@@ -101,7 +103,7 @@ describe("analysePower", () => {
   it("fires low-voltage for exactly lowVoltageMinS (2 s) below 3.5 V/cell, with its peak and threshold", () => {
     // 3.4 V/cell (10.2 V) over samples 20–39, 3.3 V/cell at sample 25: 2.0–4.0 s.
     const s = makeSeries(60, { voltageV: (i) => (i === 25 ? 9.9 : i >= 20 && i < 40 ? 10.2 : 11.7), currentA: () => 10 });
-    const r = analysePower(s, th, build3s);
+    const r = analysePower(s, raw, build3s);
     expect(r.events).toHaveLength(1);
     expect(r.events[0]).toMatchObject({ kind: "low-voltage", startS: 2, endS: 4, threshold: 3.5, detail: { unit: "V/cell", cells: 3 } });
     expect(r.events[0].peak).toBeCloseTo(3.3, 12);
@@ -109,16 +111,40 @@ describe("analysePower", () => {
 
   it("does not fire for 1.9 s below, nor exactly at 3.5 V/cell", () => {
     const short = makeSeries(60, { voltageV: (i) => (i >= 20 && i < 39 ? 10.2 : 11.7) });
-    expect(analysePower(short, th, build3s).events).toEqual([]);
+    expect(analysePower(short, raw, build3s).events).toEqual([]);
     const atThreshold = makeSeries(60, { voltageV: () => 10.5 }); // 10.5 / 3 = 3.5 exactly
     expect(analysePower(atThreshold, th, build3s).events).toEqual([]);
   });
 
   it("keeps a low-voltage span over missing samples but not over a reception gap", () => {
     const gappy = makeSeries(60, { voltageV: (i) => (i >= 20 && i < 40 ? (i % 4 === 0 ? 10.2 : NaN) : 11.7) });
-    expect(analysePower(gappy, th, build3s).events.map((e) => [e.startS, e.endS])).toEqual([[2, 4]]);
+    expect(analysePower(gappy, raw, build3s).events.map((e) => [e.startS, e.endS])).toEqual([[2, 4]]);
     const split = makeSeries(60, { voltageV: (i) => (i >= 20 && i < 40 ? 10.2 : 11.7), segmentStart: (i) => (i === 0 || i === 30 ? 1 : 0) });
-    expect(analysePower(split, th, build3s).events).toEqual([]);
+    expect(analysePower(split, raw, build3s).events).toEqual([]);
+  });
+
+  // DESIGN.md §10 "Noise": loaded pack voltage jitters by tens of mV. 3S pack falling linearly
+  // through 10.5 V (3.5 V/cell) at exactly 20.0 s, ±60 mV alternating jitter (our own data).
+  it("starts low voltage where the mean crosses the limit, not at the first jittery dip", () => {
+    const n = 400; // 40 s at 10 Hz
+    const v = (i: number) => 10.5 - 0.02 * (i / 10 - 20) + (i % 2 ? 0.06 : -0.06);
+    const s = makeSeries(n, { voltageV: v, currentA: () => 15 });
+    const smooth = analysePower(s, th, build3s);
+    expect(smooth.events).toHaveLength(1);
+    // The 1 s centred mean of a line is the line (the jitter cancels): the crossing is 20.0 s ± one sample.
+    expect(Math.abs(smooth.events[0].startS - 20)).toBeLessThanOrEqual(0.1 + 1e-9);
+    expect(smooth.events[0].detail).toMatchObject({ windowS: 1 });
+    // Judged sample by sample, the +60 mV samples end every span from 17 s on until they too fall
+    // below after 23 s: the start moves by the jitter's 3 s of decline.
+    const jittery = analysePower(s, raw, build3s);
+    expect(jittery.events[0].startS).toBeCloseTo(23, 6);
+  });
+
+  it("centredMean averages the values in [t − w/2, t + w/2) around each sample, skipping missing ones", () => {
+    // windows [t − 0.5, t + 0.5): {0}, {0, 0.5}, {0.5, 1}, {1, 1.5}
+    expect(Array.from(centredMean([0, 0.5, 1, 1.5], [4, 2, 4, 2], 1))).toEqual([4, 3, 3, 3]);
+    expect(Array.from(centredMean([0, 1, 2], [1, NaN, 3], 4.5))).toEqual([2, NaN, 2]);
+    expect(Array.from(centredMean([0, 1], [5, 6], 0))).toEqual([5, 6]);
   });
 
   it("has no low-voltage events when the cell count is unknown", () => {

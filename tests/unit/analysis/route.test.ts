@@ -67,7 +67,7 @@ describe("analyseRoute", () => {
     expect(miss.peak).toBeCloseTo(Math.SQRT1_2 * 10, 1);
   });
 
-  it("fires off-route once for 3.1 s beyond the 3 m corridor, not for a 1.4 s excursion", () => {
+  it("fires off-route once for 3.2 s beyond the 3 m corridor (until back inside 2.5 m), not for a 1.4 s excursion", () => {
     // 4 m/s east along A→B; 6.5 m right from 11 s to 13 s (ramps of 1 s), 5 m right around 25–26 s.
     const y = (t: number) =>
       t >= 10 && t <= 14 ? -6.5 * Math.min(1, t - 10, 14 - t) : t >= 24.75 && t <= 26.75 ? -5 * Math.min(1, (t - 24.75) / 0.5, (26.75 - t) / 0.5) : 0;
@@ -75,10 +75,11 @@ describe("analyseRoute", () => {
     const r = analyseRoute(run(t.map((s) => 4 * s), t.map(y)), plan([["A", 0, 0], ["B", 201, 0]]), th);
     expect(kinds(r)).toEqual([["waypoint-reached", "A"], ["off-route", null], ["waypoint-reached", "B"]]);
     const off = r.events[1];
-    expect(off).toMatchObject({ startS: 10.5, endS: 13.6, threshold: 3 });
+    // Enters above 3 m at 10.5 s; leaves below 3 − 0.5 m (hysteresis), 6.5·(14 − t) < 2.5 → t > 13.62 → 13.7 s.
+    expect(off).toMatchObject({ startS: 10.5, endS: 13.7, threshold: 3 });
     expect(off.peak).toBeCloseTo(6.5, 2);
-    expect(off.detail).toMatchObject({ side: "right", legIndex: 0, from: "A", to: "B", unit: "m" });
-    expect(off.detail.durationS).toBeCloseTo(3.1, 9);
+    expect(off.detail).toMatchObject({ side: "right", legIndex: 0, from: "A", to: "B", unit: "m", exitBelowM: 2.5 });
+    expect(off.detail.durationS).toBeCloseTo(3.2, 9);
     const leg = r.legs[0];
     const abs = Array.from(r.xteM).filter(Number.isFinite).map(Math.abs);
     expect(leg.maxXteM).toBeCloseTo(6.5, 2);

@@ -16,27 +16,27 @@ const judge = (over: Partial<VerdictInput>) => judgeRun({ ...QUIET, ...over });
 
 describe("judgeRun", () => {
   it("is clear with no reasons when nothing fired", () => {
-    expect(judgeRun(QUIET)).toEqual({ level: "clear", reasons: [] });
-    expect(judge({ failsafeResult: "pass", hdopWarnS: 0 })).toEqual({ level: "clear", reasons: [] });
+    expect(judgeRun(QUIET)).toEqual({ level: "clear", reasons: [], held: ["link", "route", "battery", "gps"], notAssessed: [] });
+    expect(judge({ failsafeResult: "pass", hdopWarnS: 0 })).toMatchObject({ level: "clear", reasons: [] });
   });
 
   it("acts when the link was lost", () => {
-    expect(judge({ linkLost: 1 })).toEqual({ level: "act", reasons: ["Link lost once"] });
-    expect(judge({ linkLost: 2 })).toEqual({ level: "act", reasons: ["Link lost twice"] });
+    expect(judge({ linkLost: 1 })).toMatchObject({ level: "act", reasons: ["Link lost once"] });
+    expect(judge({ linkLost: 2 })).toMatchObject({ level: "act", reasons: ["Link lost twice"] });
     expect(judge({ linkLost: 3 }).reasons).toEqual(["Link lost 3 times"]);
   });
 
   it("acts when the failsafe took the wrong action", () => {
-    expect(judge({ failsafeResult: "wrong-action" })).toEqual({ level: "act", reasons: ["Failsafe took the wrong action"] });
+    expect(judge({ failsafeResult: "wrong-action" })).toMatchObject({ level: "act", reasons: ["Failsafe took the wrong action"] });
     expect(judge({ failsafeResult: "Wrong action" }).level).toBe("act");
   });
 
   it("acts when the failsafe was late", () => {
-    expect(judge({ failsafeResult: "late" })).toEqual({ level: "act", reasons: ["Failsafe acted later than planned"] });
+    expect(judge({ failsafeResult: "late" })).toMatchObject({ level: "act", reasons: ["Failsafe acted later than planned"] });
   });
 
   it("acts when the failsafe did not trigger", () => {
-    expect(judge({ failsafeResult: "not_triggered" })).toEqual({
+    expect(judge({ failsafeResult: "not_triggered" })).toMatchObject({
       level: "act",
       reasons: ["Failsafe did not trigger when the link was lost"],
     });
@@ -48,38 +48,38 @@ describe("judgeRun", () => {
   });
 
   it("acts on low voltage", () => {
-    expect(judge({ lowVoltage: 1 })).toEqual({ level: "act", reasons: ["Low voltage once"] });
+    expect(judge({ lowVoltage: 1 })).toMatchObject({ level: "act", reasons: ["Low voltage once"] });
   });
 
   it("acts on missed waypoints, naming them", () => {
-    expect(judge({ waypointsMissed: ["Dune post"] })).toEqual({ level: "act", reasons: ["1 waypoint missed: Dune post"] });
+    expect(judge({ waypointsMissed: ["Dune post"] })).toMatchObject({ level: "act", reasons: ["1 waypoint missed: Dune post"] });
     expect(judge({ waypointsMissed: ["WP2", "Dune post"] }).reasons).toEqual(["2 waypoints missed: WP2, Dune post"]);
   });
 
   it("watches link fades", () => {
-    expect(judge({ linkFades: 4 })).toEqual({ level: "watch", reasons: ["Link faded 4 times"] });
+    expect(judge({ linkFades: 4 })).toMatchObject({ level: "watch", reasons: ["Link faded 4 times"] });
   });
 
   it("watches off-route", () => {
-    expect(judge({ offRoute: 2 })).toEqual({ level: "watch", reasons: ["Off route twice"] });
+    expect(judge({ offRoute: 2 })).toMatchObject({ level: "watch", reasons: ["Off route twice"] });
   });
 
   it("watches GPS fix lost", () => {
-    expect(judge({ fixLost: 1 })).toEqual({ level: "watch", reasons: ["GPS fix lost once"] });
+    expect(judge({ fixLost: 1 })).toMatchObject({ level: "watch", reasons: ["GPS fix lost once"] });
   });
 
   it("watches position jumps", () => {
-    expect(judge({ positionJumps: 1 })).toEqual({ level: "watch", reasons: ["1 position jump"] });
+    expect(judge({ positionJumps: 1 })).toMatchObject({ level: "watch", reasons: ["1 position jump"] });
     expect(judge({ positionJumps: 5 }).reasons).toEqual(["5 position jumps"]);
   });
 
   it("watches time with HDOP above the warning", () => {
-    expect(judge({ hdopWarnS: 12.4 })).toEqual({ level: "watch", reasons: ["HDOP above the warning level for 12 s"] });
+    expect(judge({ hdopWarnS: 12.4 })).toMatchObject({ level: "watch", reasons: ["HDOP above the warning level for 12 s"] });
     expect(judge({ hdopWarnS: 3.25 }).reasons).toEqual(["HDOP above the warning level for 3.3 s"]);
   });
 
   it("acts when act and watch rules both fire, listing act reasons first", () => {
-    expect(judge({ linkFades: 3, linkLost: 2, waypointsMissed: ["Dune post"] })).toEqual({
+    expect(judge({ linkFades: 3, linkLost: 2, waypointsMissed: ["Dune post"] })).toMatchObject({
       level: "act",
       reasons: ["Link lost twice", "1 waypoint missed: Dune post", "Link faded 3 times"],
     });
@@ -87,6 +87,22 @@ describe("judgeRun", () => {
 
   it("does not fire on zero, negative or NaN counts", () => {
     expect(judge({ linkLost: NaN, linkFades: -1, lowVoltage: 0, hdopWarnS: NaN }).level).toBe("clear");
+  });
+
+  // DESIGN.md §10 "Evidence, not absence": clear only for what was assessed.
+  it("lists the parts assessed with nothing fired as held, and never a part that was not assessed", () => {
+    expect(judge({ failsafeResult: "pass" }).held).toEqual(["link", "failsafe", "route", "battery", "gps"]);
+    const gaps = [
+      { what: "link" as const, why: "the log has no link metric" },
+      { what: "failsafe" as const, why: "no link loss in this run to exercise it" },
+    ];
+    const v = judge({ notAssessed: gaps });
+    expect(v).toEqual({ level: "clear", reasons: [], held: ["route", "battery", "gps"], notAssessed: gaps });
+  });
+
+  it("does not call a part held when one of its rules fired", () => {
+    expect(judge({ linkFades: 1, offRoute: 1, failsafeResult: "pass" }).held).toEqual(["failsafe", "battery", "gps"]);
+    expect(judge({ hdopWarnS: 2, failsafeResult: "late" }).held).toEqual(["link", "route", "battery"]);
   });
 
   it("does not mutate its input", () => {

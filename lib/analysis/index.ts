@@ -1,15 +1,18 @@
 // The analysis library: pure functions over typed arrays (see DEVELOPERS.md).
 export * from "./types";
 export * from "./thresholds";
+export * from "./evidence";
 export * from "./series-collector";
 // Geodesy and track
 export * from "./geodesy";
 export * from "./gps-fix";
+export * from "./home";
 export * from "./position-jumps";
 export * from "./track";
 // Route
 export * from "./waypoint-progress";
 export * from "./rth-deviation";
+export * from "./mission-start";
 export * from "./route";
 // Link, failsafe, power
 export * from "./spans";

@@ -90,4 +90,28 @@ describe("findSpans", () => {
     expect(() => findSpans(clock(3), () => true, { minDurationS: -1 })).toThrow(RangeError);
     expect(() => findSpans(clock(3), () => true, { minDurationS: NaN })).toThrow(RangeError);
   });
+
+  describe("confirmS (debounced entry with hysteresis)", () => {
+    // Enter above 3, leave only below 2.5; keep a span only with ≥ 1 s continuously above 3.
+    const opts = (v: number[]) => ({ minDurationS: 1, confirmS: 1, exit: (i: number) => !(v[i] >= 2.5) });
+
+    it("keeps one span through dips into the dead band, from the first sample above to the first below the exit", () => {
+      // 10 Hz: above 3 for 0.3 s, a dip to 2.8, then above for 1.2 s, then 2.4
+      const v = [0, 3.2, 3.2, 3.2, 2.8, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 3.2, 2.4, 0];
+      const t = clock(v.length);
+      expect(findSpans(t, (i) => v[i] > 3, opts(v))).toEqual([{ startIndex: 1, endIndex: 16, startS: 0.1, endS: 1.7 }]);
+    });
+
+    it("drops a span whose samples above the threshold never last confirmS in a row", () => {
+      // hovering in the dead band with single samples above 3
+      const v = Array.from({ length: 60 }, (_, i) => (i % 3 === 0 ? 3.1 : 2.8));
+      expect(findSpans(clock(60), (i) => v[i] > 3, opts(v))).toEqual([]);
+      // without the debounce, hysteresis alone keeps one long span open
+      expect(findSpans(clock(60), (i) => v[i] > 3, { minDurationS: 1, exit: (i) => !(v[i] >= 2.5) })).toHaveLength(1);
+    });
+
+    it("throws a RangeError for a negative confirmS", () => {
+      expect(() => findSpans(clock(3), () => true, { minDurationS: 0, confirmS: -1 })).toThrow(RangeError);
+    });
+  });
 });

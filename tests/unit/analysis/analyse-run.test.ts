@@ -1,0 +1,102 @@
+import { describe, expect, it } from "vitest";
+import { analyseRun, assessmentGaps } from "@/lib/analysis/analyse-run";
+import type { BuildConfig } from "@/lib/analysis/types";
+import { makeSeries, rcColumn } from "@/tests/helpers/series";
+import { toLatLon, walk } from "./geo-path";
+
+// Synthetic runs written for these tests (our own data), 10 Hz. The practices come from
+// DESIGN.md §10; the µs → % mapping (1000–2000 µs = 0–100 %) is common practice.
+
+/** A bench test: armed 30 s, no GPS, transmitter off 10–20 s; RSSI on channel 14, RTH channel 8 at 1900 µs 0.4 s after the loss. */
+function bench(fields: Parameters<typeof makeSeries>[1] = {}, modeNames: string[] = []) {
+  const n = 300;
+  const off = (i: number) => i >= 100 && i < 200;
+  return makeSeries(
+    n,
+    {
+      armed: () => 1,
+      voltageV: () => 16.4,
+      rc: rcColumn(n, { 14: (i) => (off(i) ? 1000 : 1980), 8: (i) => (i >= 104 && i < 200 ? 1900 : 1000) }),
+      ...fields,
+    },
+    { modeNames },
+  );
+}
+const benchBuild: BuildConfig = {
+  vehicleType: "multirotor",
+  cells: 4,
+  failsafe: { action: "return-to-home", expectedWithinS: 1 },
+  channels: [
+    { channel: 8, function: "return-to-home", failsafeUs: 1900 },
+    { channel: 14, function: "rssi" },
+  ],
+};
+
+describe("analyseRun on a bench failsafe test", () => {
+  it("reads the link from channel 14, the command from channel 8, and does not call a missing mode column a wrong action", () => {
+    const r = analyseRun(bench(), { build: benchBuild });
+    const s = r.summary;
+    expect(s.bench).toBe(true);
+    expect(s.home).toBeNull();
+    expect(s.link).toMatchObject({ metric: "rssi-pct", source: { kind: "rc-channel", channel: 14 }, lostCount: 1, fadeCount: 0 });
+    const loss = r.events.find((e) => e.kind === "link-lost")!;
+    expect([loss.startS, loss.endS]).toEqual([10, 20]);
+    expect(s.failsafe).toMatchObject({
+      result: "pass",
+      commanded: { by: "rc-channel", channel: 8, latencyS: expect.closeTo(0.4, 9) },
+      flown: { state: "not-logged" },
+    });
+    expect(s.verdict.level).toBe("act"); // the link was lost: that is the test
+    expect(s.verdict.reasons).toEqual(["Link lost once"]);
+    expect(s.verdict.notAssessed.map((g) => g.what)).toEqual(["route", "gps"]);
+    expect(s.verdict.held).toEqual(["failsafe", "battery"]);
+    expect(s.route).toBeNull();
+    expect(r.perSample.rssiRcPct?.[0]).toBe(98);
+  });
+
+  it("reads the mode when one is logged: flown by mode with its latency", () => {
+    const s = bench({ modeIndex: (i) => (i >= 106 && i < 200 ? 1 : 0) }, ["STABILIZE", "RTH"]);
+    expect(analyseRun(s, { build: benchBuild }).summary.failsafe).toMatchObject({
+      result: "pass",
+      flown: { state: "seen", by: "mode", action: "return-to-home", latencyS: expect.closeTo(0.6, 9), mode: "RTH" },
+    });
+  });
+
+  it("with an RSSI column instead of channel 14 still passes on the command (no wrong action)", () => {
+    const s = bench({ rssiPct: (i) => (i >= 100 && i < 200 ? 0 : 95) });
+    const f = analyseRun(s, { build: benchBuild }).summary.failsafe;
+    expect(f.result).toBe("pass");
+    expect(f.flown).toEqual({ state: "not-logged" });
+    expect(analyseRun(s, { build: benchBuild }).summary.link).toMatchObject({ source: { kind: "column" }, note: expect.stringMatching(/channel 14/) });
+  });
+});
+
+describe("analyseRun without link data (a GPX-like track)", () => {
+  const p = walk([[0, 0], [100, 0]], 3, 10);
+  const s = makeSeries(p.e.length, { ...toLatLon(p.e, p.n), altM: () => 5 });
+
+  it("says the link and the failsafe were not assessed, and never that the link held", () => {
+    const v = analyseRun(s).summary.verdict;
+    expect(v.level).toBe("clear");
+    expect(v.reasons).toEqual([]);
+    expect(v.notAssessed.map((g) => g.what)).toEqual(["link", "failsafe", "route", "battery"]);
+    expect(v.notAssessed[0].why).toMatch(/no link metric/);
+    expect(v.notAssessed[1].why).toMatch(/no link loss/);
+    expect(v.held).toEqual(["gps"]);
+  });
+});
+
+describe("assessmentGaps", () => {
+  const base = { linkMetric: "lq", linkNote: null, hasBuild: true, failsafeResult: "pass", failsafeWhy: null, hasPlan: true, bench: false, hasVoltage: true, cells: 4 };
+  it("lists nothing when everything could be assessed", () => {
+    expect(assessmentGaps(base)).toEqual([]);
+  });
+  it("names each missing piece of evidence", () => {
+    expect(assessmentGaps({ ...base, linkMetric: null, linkNote: "The link sheet names channel 9 for RSSI, but the log carries no values on it" })).toEqual([
+      { what: "link", why: "The link sheet names channel 9 for RSSI, but the log carries no values on it" },
+    ]);
+    expect(assessmentGaps({ ...base, cells: null })).toEqual([{ what: "battery", why: "the cell count is unknown: set it on the build" }]);
+    expect(assessmentGaps({ ...base, bench: true }).map((g) => g.what)).toEqual(["route", "gps"]);
+    expect(assessmentGaps({ ...base, failsafeResult: "not-assessed", failsafeWhy: "x" })).toEqual([{ what: "failsafe", why: "x" }]);
+  });
+});

@@ -175,6 +175,7 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
     });
   }
   for (const j of steps.jumps) {
+    if (j.toIndex < from) continue; // a cold start's wild fixes before home are not the run
     events.push({
       kind: "position-jump",
       startS: tS[j.toIndex],

@@ -55,7 +55,17 @@ describe("analyseTrack with home at arming", () => {
   const nn = [...Array(50).fill(0), ...walkToLaunch.n, ...Array(20).fill(0), ...drive.n];
   const armedFrom = 50 + walkToLaunch.e.length;
   const { lat, lon } = toLatLon(e, nn);
-  const s = makeSeries(e.length, { lat, lon, sats: (i) => (i < 30 ? 4 : 11), hdop: (i) => (i < 50 ? 15 : 0.9), armed: (i) => (i >= armedFrom ? 1 : 0) });
+  const wild = offset(2000, 0);
+  /** The run, with one fix 2 km away at sample `wildAt` (a receiver's wild fix). */
+  const coldStart = (wildAt = -1) =>
+    makeSeries(e.length, {
+      lat: (i) => (i === wildAt ? wild.lat : lat[i]),
+      lon: (i) => (i === wildAt ? wild.lon : lon[i]),
+      sats: (i) => (i < 30 ? 4 : 11),
+      hdop: (i) => (i < 50 ? 15 : 0.9),
+      armed: (i) => (i >= armedFrom ? 1 : 0),
+    });
+  const s = coldStart();
 
   it("puts home at the launch point, and measures from there", () => {
     const r = analyseTrack(s, th);
@@ -69,5 +79,11 @@ describe("analyseTrack with home at arming", () => {
     expect(r.distanceM).toBeCloseTo(driven, 1); // the walk is not the run
     expect(Number.isNaN(r.distanceFromHomeM[10])).toBe(true);
     expect(r.hdopWarnS).toBe(0); // the cold start's HDOP 15 was before home
+  });
+
+  it("does not report a cold start's wild fix before home as a position jump", () => {
+    const jumps = (wildAt: number) => analyseTrack(coldStart(wildAt), th).events.filter((ev) => ev.kind === "position-jump");
+    expect(jumps(35)).toEqual([]); // after the first satellites, before arming
+    expect(jumps(armedFrom + 40)).toHaveLength(1); // the same fix on the run is one
   });
 });

@@ -76,3 +76,57 @@ export function toNmea(samples: SimSample[], start: Date): string {
   }
   return lines.join("\r\n") + "\r\n";
 }
+
+// ---- Writers for practice-shaped logs (scripts/simulator/practice/) ---------------------------
+
+/** One CSV column written from any sample shape: its header and its text per sample ("" = empty). */
+export interface CsvColumn<S> {
+  header: string;
+  text: (s: S) => string;
+}
+
+/** A number with `digits` decimals, or "" when it is not finite (the cell stays empty). */
+export const fixedOrEmpty = n;
+
+/** A CSV with exactly the given columns (comma, dot decimals, one header row, LF). */
+export function toColumnsCsv<S>(samples: S[], columns: CsvColumn<S>[]): string {
+  const rows = samples.map((s) => columns.map((c) => c.text(s)).join(","));
+  return [columns.map((c) => c.header).join(","), ...rows].join("\n") + "\n";
+}
+
+/** One GPX track point; satellites, HDOP and fix are written only when given. */
+export interface GpxTrackPoint {
+  t: number;
+  lat: number;
+  lon: number;
+  alt?: number;
+  sats?: number;
+  hdop?: number;
+  fix?: "none" | "2d" | "3d";
+}
+
+/** A GPX 1.1 track of every given point (no link data: GPX has no element for it). */
+export function toTrackGpx(points: GpxTrackPoint[], start: Date, name: string): string {
+  const pts = points
+    .map((p) => {
+      const extra = [
+        p.alt !== undefined ? `<ele>${p.alt.toFixed(1)}</ele>` : "",
+        `<time>${iso(start, p.t)}</time>`,
+        p.fix !== undefined ? `<fix>${p.fix}</fix>` : "",
+        p.sats !== undefined ? `<sat>${p.sats}</sat>` : "",
+        p.hdop !== undefined ? `<hdop>${p.hdop.toFixed(2)}</hdop>` : "",
+      ].join("");
+      return `      <trkpt lat="${p.lat.toFixed(7)}" lon="${p.lon.toFixed(7)}">${extra}</trkpt>`;
+    })
+    .join("\n");
+  return `<?xml version="1.0" encoding="UTF-8"?>
+<gpx version="1.1" creator="Sortie practice simulator" xmlns="http://www.topografix.com/GPX/1/1">
+  <metadata><name>${name}</name><time>${start.toISOString()}</time></metadata>
+  <trk><name>${name}</name>
+    <trkseg>
+${pts}
+    </trkseg>
+  </trk>
+</gpx>
+`;
+}

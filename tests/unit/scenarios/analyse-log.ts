@@ -16,8 +16,8 @@ async function* chunks(text: string) {
 }
 
 /**
- * The summary is read loosely typed on purpose: the tests state the contract of issue 12
- * (/work/issue12-contract.md), which the analysis is being changed to meet.
+ * The summary is read loosely typed on purpose: the tests state the stored summary's contract
+ * (README "The analysis"), as the debrief and the command-line analyser's JSON read it.
  */
 export type Summary = Record<string, any>;
 

@@ -31,3 +31,9 @@ export function parseNumber(s: string): number | null {
   if (t === "") return null;
   return /^-?\d+(\.\d+)?$/.test(t) ? Number(t) : NaN;
 }
+
+/** After a save that re-analyses the build's runs: " 3 runs of this build are being analysed again." ("" for none). */
+export function reanalysingWords(n: number | undefined): string {
+  if (!n) return "";
+  return n === 1 ? " 1 run of this build is being analysed again." : ` ${n} runs of this build are being analysed again.`;
+}

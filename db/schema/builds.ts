@@ -1,5 +1,8 @@
 import { double, float, index, int, json, mysqlEnum, mysqlTable, primaryKey, smallint, text, tinyint, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
+// Relative, not "@/…": drizzle-kit loads the schema without the app's path aliases.
+import { failsafeResults } from "../../lib/analysis/evidence";
 import { crews } from "./crews";
+import { runs } from "./runs";
 import { createdAt, id, lifecycleDates, ms, ref } from "./util/columns";
 import { users } from "./users";
 
@@ -40,6 +43,11 @@ export const builds = mysqlTable(
     /** Overrides of the crew's analysis thresholds for this build. */
     thresholds: json().$type<Record<string, number>>(),
     retiredAt: ms(),
+    /**
+     * When the link sheet (channels or failsafe plan) last changed; a failsafe bench test from
+     * before it is stale. Null: not changed since this column was added (or since creation).
+     */
+    linkSheetChangedAt: ms(),
     createdBy: ref().references(() => users.id, { onDelete: "set null" }),
     ...lifecycleDates(),
   },
@@ -98,8 +106,47 @@ export const buildPhotos = mysqlTable(
   (t) => [index("build_photos_build_idx").on(t.buildId, t.createdAt), uniqueIndex("build_photos_object_key_uq").on(t.objectKey)],
 );
 
+/** What a bench test's log showed the vehicle doing (lib/analysis/evidence.ts FailsafeFlown). */
+export const flownStates = ["seen", "none", "not-logged"] as const;
+export type FlownState = (typeof flownStates)[number];
+
+/**
+ * Failsafe bench tests (DESIGN.md §10): a lead records a bench run's failsafe audit on its build.
+ * A test belongs to the build; its run may be deleted later (the figures stay). `testedAt` is when
+ * the test happened (the log's start, else the upload), so a link-sheet change after it makes it
+ * stale. One row per build and run: recording the same run again returns the existing row.
+ */
+export const benchTests = mysqlTable(
+  "bench_tests",
+  {
+    id: id(),
+    buildId: ref().notNull().references(() => builds.id, { onDelete: "cascade" }),
+    runId: ref().references(() => runs.id, { onDelete: "set null" }),
+    recordedBy: ref().references(() => users.id, { onDelete: "set null" }),
+    testedAt: ms().notNull(),
+    recordedAt: createdAt(),
+    result: mysqlEnum(failsafeResults).notNull(),
+    /** From the link loss's start to the receiver's failsafe output (channel or flag), s. */
+    commandedLatencyS: float(),
+    /** From the link loss's start to the action the vehicle took, s (when seen). */
+    flownLatencyS: float(),
+    flownState: mysqlEnum(flownStates),
+    /** The action the vehicle took, when the log shows one. */
+    action: mysqlEnum(failsafeActions),
+    /** The run's failsafe audit as recorded (plan, commanded, flown), so its words can be shown later. */
+    failsafe: json().$type<Record<string, unknown>>(),
+    note: varchar({ length: 500 }),
+  },
+  (t) => [
+    index("bench_tests_build_tested_idx").on(t.buildId, t.testedAt),
+    uniqueIndex("bench_tests_build_run_uq").on(t.buildId, t.runId),
+    index("bench_tests_run_idx").on(t.runId),
+  ],
+);
+
 export type Build = typeof builds.$inferSelect;
 export type NewBuild = typeof builds.$inferInsert;
 export type BuildChannel = typeof buildChannels.$inferSelect;
 export type BuildChange = typeof buildChanges.$inferSelect;
 export type BuildPhoto = typeof buildPhotos.$inferSelect;
+export type BenchTest = typeof benchTests.$inferSelect;

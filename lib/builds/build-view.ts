@@ -2,6 +2,7 @@ import { getBuild, listBuildChanges, listBuildRuns } from "@/db/queries/builds";
 import { requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/roles";
+import { latestBenchTest } from "./bench-tests";
 import { sheetCheckOf } from "./build-check";
 import type { Changes } from "./history";
 import { photoViews } from "./photos";
@@ -10,11 +11,12 @@ import { buildTrends } from "./trends";
 /** Everything the build page shows, for anyone who may read the build's crew. */
 export async function loadBuildView(actor: Actor, buildId: number) {
   const { record, access } = await requireRecordPermission(actor, () => getBuild(buildId), "read", "Build");
-  const [changes, runs, photos, check] = await Promise.all([
+  const [changes, runs, photos, check, benchTests] = await Promise.all([
     listBuildChanges(buildId),
     listBuildRuns(record.crewId, buildId),
     photoViews(buildId),
     sheetCheckOf(record),
+    latestBenchTest(record),
   ]);
   const history = changes.map((c) => ({ ...c, changes: c.changes as Changes }));
   return {
@@ -25,6 +27,7 @@ export async function loadBuildView(actor: Actor, buildId: number) {
     runs,
     photos,
     check,
+    benchTests,
     trends: buildTrends(runs, history, actor.user.units),
   };
 }

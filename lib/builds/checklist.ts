@@ -10,6 +10,8 @@ import { defaultThresholds, withOverrides } from "@/lib/analysis/thresholds";
 import type { Thresholds } from "@/lib/analysis/types";
 import { requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
+import { benchTestLine, benchTestStanding, type BenchTestStanding } from "./bench-test-facts";
+import { latestBenchTest } from "./bench-tests";
 import { sheetCheckOf } from "./build-check";
 import { FUNCTION_WORDS, STICK_CHANNELS } from "./sheet-check";
 
@@ -30,6 +32,8 @@ export interface Checklist {
   switches: SwitchLine[];
   rssi: string[];
   failsafePlan: string;
+  /** Where the build's recorded failsafe bench test stands: missing, stale, failed or current. */
+  benchTestRecord: { state: BenchTestStanding["state"]; line: string };
   benchTest: string[];
   battery: string[];
 }
@@ -53,10 +57,12 @@ function makeSafe(vehicle: BuildWithChannels["vehicleType"]): string {
 }
 
 /**
- * Lines of the checklist: radio and link, which switch does what, the failsafe plan and how to
- * bench-test it, and the battery. Missing facts are said to be missing rather than left out.
+ * Lines of the checklist: radio and link, which switch does what, the failsafe plan, the build's
+ * recorded bench test (missing or stale is said so) and how to bench-test it, and the battery.
+ * Missing facts are said to be missing rather than left out.
+ * @param bench the build's latest recorded bench test (when it was done, its result), or null
  */
-export function buildChecklist(b: BuildWithChannels, th: Pick<Thresholds, "lowCellV">): Checklist {
+export function buildChecklist(b: BuildWithChannels, th: Pick<Thresholds, "lowCellV">, bench: { testedAt: Date; result: string } | null = null): Checklist {
   const band = b.bandMhz != null ? `${v(b.bandMhz)} MHz` : null;
   const radio = [
     `Transmitter (${b.transmitter ?? "not recorded"}) bound to the receiver (${b.receiver ?? "not recorded"})${band ? ` on ${band}` : ""}.`,
@@ -112,13 +118,18 @@ export function buildChecklist(b: BuildWithChannels, th: Pick<Thresholds, "lowCe
       : `End the run before ${th.lowCellV.toFixed(2)} V per cell under load (the crew's low-voltage threshold).`,
     "No swelling, dents, torn wrap or hot cells; balance lead and main lead undamaged; pack strapped down.",
   ];
-  return { radio, sticks, switches, rssi, failsafePlan: plan, benchTest, battery };
+  const standing = benchTestStanding(bench, b.linkSheetChangedAt);
+  return { radio, sticks, switches, rssi, failsafePlan: plan, benchTestRecord: { state: standing.state, line: benchTestLine(standing) }, benchTest, battery };
 }
 
 /** The checklist of a build the actor may read, with its sheet check. */
 export async function loadChecklist(actor: Actor, buildId: number) {
   const { record } = await requireRecordPermission(actor, () => getBuild(buildId), "read", "Build");
-  const [[crew], check] = await Promise.all([db().select({ thresholds: crews.thresholds }).from(crews).where(eq(crews.id, record.crewId)), sheetCheckOf(record)]);
+  const [[crew], check, bench] = await Promise.all([
+    db().select({ thresholds: crews.thresholds }).from(crews).where(eq(crews.id, record.crewId)),
+    sheetCheckOf(record),
+    latestBenchTest(record),
+  ]);
   const th = withOverrides(defaultThresholds(record.vehicleType), crew?.thresholds as Partial<Thresholds> | null, record.thresholds as Partial<Thresholds> | null);
-  return { build: record, check, checklist: buildChecklist(record, th) };
+  return { build: record, check, checklist: buildChecklist(record, th, bench.latest) };
 }

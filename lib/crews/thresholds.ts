@@ -1,10 +1,10 @@
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
-import { crews, runs } from "@/db/schema";
+import { crews } from "@/db/schema";
 import { audit } from "@/lib/audit";
 import { requireCrewPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
-import { enqueueIngest } from "@/lib/jobs/enqueue";
+import { queueReadyRunsForAnalysis } from "@/lib/runs/reanalyse";
 import type { ThresholdOverrides } from "@/lib/validations/thresholds";
 
 export async function getCrewThresholds(actor: Actor, crewId: number): Promise<ThresholdOverrides> {
@@ -26,11 +26,7 @@ export async function setCrewThresholds(actor: Actor, crewId: number, overrides:
  */
 export async function reanalyseCrewRuns(actor: Actor, crewId: number): Promise<number> {
   await requireCrewPermission(actor, crewId, "manageThresholds", "Crew");
-  const ready = await db().select({ id: runs.id }).from(runs).where(and(eq(runs.crewId, crewId), eq(runs.status, "ready")));
-  for (const r of ready) {
-    const [claim] = await db().update(runs).set({ status: "queued", progress: 0 }).where(and(eq(runs.id, r.id), eq(runs.status, "ready")));
-    if ((claim as unknown as { affectedRows: number }).affectedRows) await enqueueIngest(r.id);
-  }
-  await audit({ crewId, actorId: actor.user.id, action: "crew.runs-reanalysed", targetType: "crew", targetId: crewId, detail: { runs: ready.length } });
-  return ready.length;
+  const queued = await queueReadyRunsForAnalysis({ crewId });
+  await audit({ crewId, actorId: actor.user.id, action: "crew.runs-reanalysed", targetType: "crew", targetId: crewId, detail: { runs: queued } });
+  return queued;
 }

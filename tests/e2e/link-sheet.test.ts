@@ -110,6 +110,16 @@ describe("the link sheet and its check", () => {
   });
 
   it("lists the build's runs with trend charts and the history of the edits", async () => {
+    // Each saved change re-analysed the build's runs with the new sheet: wait until they are back.
+    await expect
+      .poll(
+        async () => {
+          await page.reload();
+          return page.getByTestId("build-runs").textContent();
+        },
+        { timeout: 60_000, interval: 1_000 },
+      )
+      .not.toMatch(/queued|parsing|analysing/);
     await page.getByTestId("build-runs").locator("a").first().waitFor();
     await page.getByTestId("trend-linkMin").locator("canvas").first().waitFor({ timeout: 15_000 });
     expect(Number(await page.getByTestId("trend-linkMin").getAttribute("data-points"))).toBeGreaterThan(0);

@@ -24,6 +24,7 @@ import { createApiToken } from "@/lib/api-tokens";
 import { acceptInvitation } from "@/lib/crews/invitations";
 import { simulateRun } from "@/scripts/simulator/simulate-run";
 import { toCsv } from "@/scripts/simulator/write-logs";
+import { markAsBenchRun } from "../helpers/bench-log";
 import { Client } from "../helpers/http";
 import { linkIn, tokenFromLink, waitForMail } from "../helpers/inbox";
 import { newLead, testPassword, uniqueEmail } from "../helpers/people";
@@ -153,7 +154,17 @@ const expectations: Record<string, Expectation> = {
   "POST /api/builds": { min: "lead", req: (f) => ({ method: "POST", path: "/api/builds", json: { crewId: f.crewId, name: "Matrix build", vehicleType: "ground" } }) },
   "GET /api/builds/[id]": { min: "observer", req: (f) => ({ path: `/api/builds/${f.buildId}` }) },
   "PUT /api/builds/[id]": { min: "lead", req: (f) => ({ method: "PUT", path: `/api/builds/${f.buildId}`, json: { notes: "checked by the matrix" } }) },
-  "PUT /api/builds/[id]/link-sheet": { min: "lead", req: (f) => ({ method: "PUT", path: `/api/builds/${f.buildId}/link-sheet`, json: { channels } }) },
+  // A changed sheet re-analyses the build's runs (the pilot's run is on this build).
+  "PUT /api/builds/[id]/link-sheet": { min: "lead", settle: true, req: (f) => ({ method: "PUT", path: `/api/builds/${f.buildId}/link-sheet`, json: { channels } }) },
+  "GET /api/builds/[id]/bench-tests": { min: "observer", req: (f) => ({ path: `/api/builds/${f.buildId}/bench-tests` }) },
+  // The pilot's run is on the fixture build; it is given the bench summary of the analysis contract.
+  "POST /api/builds/[id]/bench-tests": {
+    min: "lead",
+    req: async (f) => {
+      await markAsBenchRun(f.pilotRunId);
+      return { method: "POST", path: `/api/builds/${f.buildId}/bench-tests`, json: { runId: f.pilotRunId, note: "matrix" } };
+    },
+  },
   "GET /api/builds/[id]/check": { min: "observer", req: (f) => ({ path: `/api/builds/${f.buildId}/check` }) },
   "GET /api/builds/[id]/history": { min: "observer", req: (f) => ({ path: `/api/builds/${f.buildId}/history` }) },
   "POST /api/builds/[id]/retire": { min: "lead", req: (f) => ({ method: "POST", path: `/api/builds/${f.buildId}/retire`, json: { retired: false } }) },

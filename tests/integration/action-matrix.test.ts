@@ -33,12 +33,13 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { demoCrew } from "@/db/demo-crew";
 import { getUserById } from "@/db/queries/users";
-import { apiTokens, builds, crews, invitations, memberships, passwordResets, runNotes, runs, users, type Role } from "@/db/schema";
+import { apiTokens, benchTests, builds, crews, invitations, memberships, passwordResets, runNotes, runs, users, type Role } from "@/db/schema";
 import { createApiToken } from "@/lib/api-tokens";
 import { hashToken, newToken } from "@/lib/auth/secrets";
 import { acceptInvitation } from "@/lib/crews/invitations";
 import { simulateRun } from "@/scripts/simulator/simulate-run";
 import { toCsv } from "@/scripts/simulator/write-logs";
+import { markAsBenchRun } from "../helpers/bench-log";
 import { Client } from "../helpers/http";
 import { linkIn, tokenFromLink, waitForMail } from "../helpers/inbox";
 import { newLead, testPassword, uniqueEmail } from "../helpers/people";
@@ -217,6 +218,23 @@ const expectations: Record<string, Expectation> = {
     form: (c) => ({ crewId: c.f.crewId, name: `Matrix build ${c.tag}`, vehicleType: "ground", bandMhz: "2400" }),
     state: async (c) => db().select({ crewId: builds.crewId }).from(builds).where(eq(builds.name, `Matrix build ${c.tag}`)),
     applied: (c, after) => expect(after).toEqual([{ crewId: A.crewId }]),
+  },
+
+  // On the debrief of a bench run: the crew's run, attached to a fresh build and given the bench
+  // summary of the analysis contract (the analysis itself is not under test here).
+  "app/(app)/builds/actions.ts#recordBenchTestAction": {
+    min: "lead",
+    other: "Build not found",
+    prepare: async (c) => {
+      const [{ id }] = await db().insert(builds).values({ crewId: c.f.crewId, name: `Matrix bench build ${c.tag}`, vehicleType: "multirotor" }).$returningId();
+      await db().update(runs).set({ buildId: id }).where(eq(runs.id, c.f.runId));
+      await markAsBenchRun(c.f.runId);
+      c.data.buildId = id;
+    },
+    params: (c) => ({ runId: c.f.runId }),
+    form: (c) => ({ runId: c.f.runId, buildId: c.data.buildId, note: `matrix ${c.tag}` }),
+    state: async (c) => db().select({ buildId: benchTests.buildId, note: benchTests.note }).from(benchTests).where(eq(benchTests.runId, c.f.runId)),
+    applied: (c, after) => expect(after).toEqual([{ buildId: Number(c.data.buildId), note: `matrix ${c.tag}` }]),
   },
 
   "app/(app)/crew/actions.ts#inviteMemberAction": {

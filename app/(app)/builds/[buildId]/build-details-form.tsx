@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { ApiFailure, parseNumber, sendJson } from "@/components/builds/api";
+import { ApiFailure, parseNumber, reanalysingWords, sendJson } from "@/components/builds/api";
 import { Field } from "@/components/ui/field";
 import { SelectField } from "@/components/ui/select-field";
 
@@ -54,10 +54,10 @@ export function BuildDetailsForm({ buildId, values }: { buildId: number; values:
     setBusy(true);
     setMessage(null);
     try {
-      const res = await sendJson<{ changed: string[] }>(`/api/builds/${buildId}`, "PUT", body);
+      const res = await sendJson<{ changed: string[]; reanalysing: number }>(`/api/builds/${buildId}`, "PUT", body);
       setErrors({});
       const n = res.changed.length;
-      setMessage({ ok: true, text: n === 0 ? "Nothing had changed." : `Saved ${n} change${n === 1 ? "" : "s"}.` });
+      setMessage({ ok: true, text: n === 0 ? "Nothing had changed." : `Saved ${n} change${n === 1 ? "" : "s"}.${reanalysingWords(res.reanalysing)}` });
       router.refresh();
     } catch (e) {
       setErrors(e instanceof ApiFailure ? e.fields : {});

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
-import { ApiFailure, parseNumber, sendJson } from "@/components/builds/api";
+import { ApiFailure, parseNumber, reanalysingWords, sendJson } from "@/components/builds/api";
 import type { ChannelFunction, FailsafeAction } from "@/db/schema/builds";
 
 export interface EditorChannel {
@@ -122,7 +122,7 @@ export function LinkSheetEditor({
     }
     setBusy(true);
     try {
-      const res = await sendJson<{ changed: string[]; check: { findings: unknown[] } }>(`/api/builds/${buildId}/link-sheet`, "PUT", {
+      const res = await sendJson<{ changed: string[]; reanalysing: number; check: { findings: unknown[] } }>(`/api/builds/${buildId}/link-sheet`, "PUT", {
         channels: channelsOut,
         failsafeAction: action || null,
         failsafeWithinS: withinS,
@@ -132,7 +132,10 @@ export function LinkSheetEditor({
       const n = res.changed.length;
       setMessage({
         ok: true,
-        text: n === 0 ? "Nothing had changed." : `Saved ${n} change${n === 1 ? "" : "s"}. The sheet check now lists ${res.check.findings.length} finding${res.check.findings.length === 1 ? "" : "s"}.`,
+        text:
+          n === 0
+            ? "Nothing had changed."
+            : `Saved ${n} change${n === 1 ? "" : "s"}. The sheet check now lists ${res.check.findings.length} finding${res.check.findings.length === 1 ? "" : "s"}.${reanalysingWords(res.reanalysing)}`,
       });
       router.refresh();
     } catch (e) {

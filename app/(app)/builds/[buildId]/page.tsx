@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { BenchTestSection } from "@/components/builds/bench-test-section";
 import { BuildHistory } from "@/components/builds/build-history";
 import { SheetCheckPanel } from "@/components/builds/sheet-check-panel";
 import { TrendChart } from "@/components/builds/trend-chart";
@@ -133,6 +134,14 @@ export default async function BuildPage({ params }: { params: Promise<{ buildId:
         <div className="mt-4">
           <SafetyNote topic="failsafe" />
         </div>
+      </Section>
+
+      <Section
+        id="bench-test"
+        title="Failsafe bench test"
+        lead="The latest bench test of this build's failsafe, recorded by a lead from a bench log's debrief. A link-sheet change after it makes it stale."
+      >
+        <BenchTestSection vehicleType={b.vehicleType} latest={v.benchTests.latest} earlier={v.benchTests.earlier} linkSheetChangedAt={b.linkSheetChangedAt} />
       </Section>
 
       <Section id="runs" title="Runs with this build" lead="Each run's figures over time; dashed lines mark when the build record changed.">

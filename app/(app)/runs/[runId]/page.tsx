@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { BenchTestPanel } from "@/components/builds/bench-test-panel";
 import { MoveRunForm } from "@/components/builds/move-run-form";
 import { DebriefBody } from "@/components/debrief/debrief-body";
 import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
@@ -115,6 +116,8 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
       )}
 
       <DebriefBody run={run} summary={summary} dataVersion={d.dataVersion} events={d.events} plan={d.plan} units={units} />
+
+      {ready && <BenchTestPanel runId={run.id} />}
 
       <NotesSection notes={d.notes} emptyText="No notes yet. Pilots add what they saw and changed; leads read them before signing off.">
         {mayNote && <NoteForm runId={run.id} />}

@@ -16,10 +16,13 @@ export const GET = apiRoute<{ id: string }>(async (_req, ctx) => {
   return { build: record };
 });
 
-/** Partial update: the fields sent change, null clears one; every change lands in the history. */
+/**
+ * Partial update: the fields sent change, null clears one; every change lands in the history. A
+ * change the analysis reads queues the build's ready runs again (`reanalysing` says how many).
+ */
 export const PUT = apiRoute<{ id: string }>(async (req, ctx) => {
   const actor = await requireActor();
   const { id } = parseParams(ctx.params, params);
-  const { changed } = await updateBuild(actor, id, await readJson(req, buildUpdateSchema));
-  return { build: await getBuild(id), changed };
+  const { changed, reanalysing } = await updateBuild(actor, id, await readJson(req, buildUpdateSchema));
+  return { build: await getBuild(id), changed, reanalysing };
 });

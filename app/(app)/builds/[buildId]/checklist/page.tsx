@@ -145,6 +145,15 @@ export default async function ChecklistPage({ params }: { params: Promise<{ buil
 
       <Part title="Failsafe plan and bench test">
         <p className="text-sm font-semibold">{c.failsafePlan}</p>
+        {c.benchTestRecord.state === "current" ? (
+          <p className="mt-1 text-sm" data-testid="checklist-bench-test">
+            {c.benchTestRecord.line}
+          </p>
+        ) : (
+          <p className="mt-2 rounded-md border-l-4 border-watch bg-watch/10 px-3 py-2 text-sm font-semibold print:border-black print:bg-white" data-testid="checklist-bench-test">
+            {c.benchTestRecord.line}
+          </p>
+        )}
         <ol className="mt-2 grid gap-2 text-sm">
           {c.benchTest.map((t, i) => (
             <Item key={i} id={`bench-${i}`}>

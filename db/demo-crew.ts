@@ -4,6 +4,43 @@
  */
 export const demoPassword = "tidewater-demo";
 
+/** One row of a demo build's link sheet (db/schema/builds.ts buildChannels); channels not listed are unused. */
+export interface DemoChannel {
+  channel: number;
+  function: "roll" | "pitch" | "throttle" | "yaw" | "arm" | "return-to-home" | "mission" | "mode" | "rssi" | "aux";
+  switchLabel?: string;
+  positions?: number;
+  engageMinUs?: number;
+  engageMaxUs?: number;
+  failsafeUs?: number;
+}
+
+/**
+ * The rovers' sheet matches what our simulator writes to ch1–ch8 (scripts/simulator/simulate-run.ts):
+ * steering on 1, throttle on 2, arm on 5 (2000 µs armed), mission on 6 (1500 µs while the route
+ * runs), return to home on 7 (2000 µs), which the receiver also puts out on link loss.
+ */
+const roverSheet: DemoChannel[] = [
+  { channel: 1, function: "roll" },
+  { channel: 2, function: "throttle" },
+  { channel: 5, function: "arm", switchLabel: "A", positions: 2, engageMinUs: 1800, engageMaxUs: 2100 },
+  { channel: 6, function: "mission", switchLabel: "B", positions: 3, engageMinUs: 1400, engageMaxUs: 1600, failsafeUs: 1000 },
+  { channel: 7, function: "return-to-home", switchLabel: "C", positions: 2, engageMinUs: 1800, engageMaxUs: 2100, failsafeUs: 2000 },
+];
+
+/** The quad's sheet, as its bench failsafe test logs it (scripts/simulator/bench-test.ts): RTH on 8, RSSI on 14. */
+const quadSheet: DemoChannel[] = [
+  { channel: 1, function: "roll" },
+  { channel: 2, function: "pitch" },
+  { channel: 3, function: "throttle" },
+  { channel: 4, function: "yaw" },
+  { channel: 5, function: "arm", switchLabel: "A", positions: 2, engageMinUs: 1800, engageMaxUs: 2100 },
+  { channel: 6, function: "mode", switchLabel: "B", positions: 3 },
+  { channel: 7, function: "mission", switchLabel: "C", positions: 3, engageMinUs: 1400, engageMaxUs: 1600, failsafeUs: 1000 },
+  { channel: 8, function: "return-to-home", switchLabel: "D", positions: 2, engageMinUs: 1800, engageMaxUs: 2100, failsafeUs: 1900 },
+  { channel: 14, function: "rssi" },
+];
+
 export const demoCrew = {
   name: "Tidewater Robotics",
   members: [
@@ -29,6 +66,7 @@ export const demoCrew = {
       batteryCapacityMah: 5000,
       failsafeAction: "return-to-home" as const,
       failsafeWithinS: 1.5,
+      linkSheet: roverSheet,
     },
     {
       name: "Sandpiper",
@@ -44,6 +82,12 @@ export const demoCrew = {
       batteryCapacityMah: 4000,
       failsafeAction: "hold" as const,
       failsafeWithinS: 1,
+      // Hold is a flight mode: the mode switch's third position, which the receiver's failsafe selects.
+      linkSheet: [
+        ...roverSheet.filter((c) => c.channel !== 7),
+        { channel: 7, function: "return-to-home", switchLabel: "C", positions: 2, engageMinUs: 1800, engageMaxUs: 2100 },
+        { channel: 8, function: "mode", switchLabel: "D", positions: 3, engageMinUs: 1800, engageMaxUs: 2100, failsafeUs: 1900 },
+      ] satisfies DemoChannel[],
     },
     {
       name: "Heron",
@@ -59,6 +103,7 @@ export const demoCrew = {
       batteryCapacityMah: 3300,
       failsafeAction: "return-to-home" as const,
       failsafeWithinS: 1,
+      linkSheet: quadSheet,
     },
   ],
   // An invented field on a stretch of coast: a loop around the flats and a short survey line.

@@ -1,17 +1,33 @@
 import type { ChartPanel } from "@/components/charts/chart-group";
 import { lengthConversion, speedConversion, type Units } from "@/lib/format/units";
+import type { LinkSource } from "@/lib/analysis/evidence";
 import type { SeriesField } from "@/lib/series/types";
 
-/** The run's link metric as the analysis chose it (summary.link). */
+/** The run's link metric as the analysis chose it (summary.link); `source` is absent from older summaries. */
 export interface LinkInfo {
   metric: string | null;
   unit: string | null;
   fadeThreshold: number | null;
+  source?: LinkSource | null;
 }
 
 const linkLabels: Record<string, string> = { lqPct: "Link quality", rssiPct: "RSSI", rssiDbm: "RSSI", snrDb: "SNR" };
 /** The analysis names its metric by kind (lib/analysis/link.ts); the charts need the sample field. */
 const metricField: Record<string, SeriesField> = { lq: "lqPct", "rssi-pct": "rssiPct", "rssi-dbm": "rssiDbm" };
+
+/**
+ * The judged link metric's chart field and title. RSSI read from the link sheet's channel is not a
+ * column of the log: the analysis stores it as the derived field `rssiRcPct` in the display levels.
+ */
+export function linkChart(link: LinkInfo, fieldsPresent: readonly string[]): { field: SeriesField; title: string; label: string } | null {
+  if (link.metric && link.source?.kind === "rc-channel") {
+    return { field: "rssiRcPct", title: `RSSI from channel ${link.source.channel} — the link metric judged`, label: `RSSI (channel ${link.source.channel})` };
+  }
+  const field = link.metric ? metricField[link.metric] : undefined;
+  if (!field || !fieldsPresent.includes(field)) return null;
+  const label = linkLabels[field] ?? field;
+  return { field, title: `${label} — the link metric judged`, label };
+}
 
 /**
  * Which charts a run gets: one per quantity the log carries, link first (with the fade threshold
@@ -20,14 +36,14 @@ const metricField: Record<string, SeriesField> = { lq: "lqPct", "rssi-pct": "rss
 export function chartPanels(fieldsPresent: string[], hasPlan: boolean, link: LinkInfo, units: Units): ChartPanel[] {
   const has = (f: string) => fieldsPresent.includes(f);
   const panels: ChartPanel[] = [];
-  const field = link.metric ? metricField[link.metric] : undefined;
-  const metric = field && has(field) ? field : null;
-  if (metric) {
+  const judged = linkChart(link, fieldsPresent);
+  const metric = judged?.field ?? null;
+  if (judged) {
     panels.push({
       id: "link",
-      title: `${linkLabels[metric] ?? metric} — the link metric judged`,
+      title: judged.title,
       unit: link.unit ?? "",
-      series: [{ field: metric, label: linkLabels[metric] ?? metric }],
+      series: [{ field: judged.field, label: judged.label }],
       thresholds: link.fadeThreshold != null ? [{ value: link.fadeThreshold, label: "fade threshold" }] : undefined,
       height: 170,
     });

@@ -19,7 +19,10 @@ interface Props {
 /** A ready run's figures, synced charts and map, and range view: the same for the crew and a share link. */
 export function DebriefBody({ run, summary, dataVersion, events, plan, units, apiBase }: Props) {
   if (run.status !== "ready") return null;
-  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null };
+  const link = summary.link ?? { metric: null, unit: null, fadeThreshold: null, source: null };
+  // A bench run (no usable fix) has no track: no map, no route, no range (DESIGN.md §10).
+  const bench = summary.bench === true;
+  const start = summary.route?.start ?? null;
   return (
     <>
       <SummaryFigures summary={summary} units={units} />
@@ -31,16 +34,18 @@ export function DebriefBody({ run, summary, dataVersion, events, plan, units, ap
           durationS={run.durationS ?? summary.durationS ?? 0}
           events={events}
           fieldsPresent={summary.fieldsPresent ?? []}
-          hasPlan={Boolean(plan)}
-          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold }}
+          hasPlan={Boolean(plan) && !bench}
+          link={{ metric: link.metric, unit: link.unit, fadeThreshold: link.fadeThreshold, source: link.source ?? null }}
           units={units}
-          plan={plan}
-          home={(run.summary?.home as { lat: number; lon: number } | null) ?? null}
+          plan={bench ? null : plan}
+          home={summary.home ? { lat: summary.home.lat, lon: summary.home.lon, source: summary.home.source ?? null } : null}
+          missionStart={start ? { lat: start.lat, lon: start.lon, source: start.source, startS: start.startS } : null}
+          bench={bench}
           tileUrl={env().MAP_TILE_URL ?? null}
           tileAttribution={env().MAP_TILE_ATTRIBUTION ?? null}
         />
       )}
-      <RangeSection runId={run.id} version={dataVersion} apiBase={apiBase} range={summary.range} units={units} />
+      {!bench && <RangeSection runId={run.id} version={dataVersion} apiBase={apiBase} range={summary.range} units={units} />}
     </>
   );
 }

@@ -2,12 +2,12 @@
 
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { ChartGroup, type ChartMarker } from "@/components/charts/chart-group";
-import { TrackMap } from "@/components/map/track-map";
+import { TrackMap, type MapHome, type MapMissionStart } from "@/components/map/track-map";
 import { formatClock, type Units } from "@/lib/format/units";
 import { chartPanels, panelConversions, type LinkInfo } from "./chart-panels";
 import { EventTimeline } from "./event-timeline";
 import { EventsTable } from "./events-table";
-import { eventLabel, eventTone, eventWindow, type DebriefEvent } from "./event-words";
+import { eventLabel, eventTone, eventWindow, fadeLeadIn, type DebriefEvent } from "./event-words";
 
 export interface DebriefWorkspaceProps {
   runId: number;
@@ -22,7 +22,11 @@ export interface DebriefWorkspaceProps {
   link: LinkInfo;
   units: Units;
   plan: { name: string; waypoints: { name: string; lat: number; lon: number; radiusM: number }[] } | null;
-  home: { lat: number; lon: number } | null;
+  home: MapHome | null;
+  /** Where route following began (summary.route.start). */
+  missionStart: MapMissionStart | null;
+  /** A bench run (no usable fix): charts and events only, no map. */
+  bench: boolean;
   tileUrl: string | null;
   tileAttribution: string | null;
 }
@@ -108,7 +112,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
       </div>
       <EventTimeline
         durationS={durationS}
-        marks={events.map((e) => ({ id: e.id, startS: e.startS, endS: e.endS, tone: eventTone(e), label: eventLabel(e) }))}
+        marks={events.map((e) => ({ id: e.id, startS: e.startS, endS: e.endS, tone: eventTone(e), label: eventLabel(e), leadInS: fadeLeadIn(e) }))}
         selectedId={selectedId}
         range={range}
         onSelect={select}
@@ -116,7 +120,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
       <p className="mb-3 text-xs text-ink-soft">
         Keys: <kbd>n</kbd> next event, <kbd>p</kbd> previous, <kbd>0</kbd> whole run; on a chart, drag to zoom, <kbd>←</kbd>/<kbd>→</kbd> pan, <kbd>+</kbd>/<kbd>−</kbd> zoom.
       </p>
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className={props.bench ? "" : "grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]"}>
         <div className="panel min-w-0 p-2 sm:p-3">
           <ChartGroup
             runId={runId}
@@ -133,29 +137,32 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
             convert={convert}
           />
         </div>
-        <div className="panel min-w-0 p-2 sm:p-3 lg:sticky lg:top-20 lg:self-start">
-          <TrackMap
-            runId={runId}
-            version={props.version}
-            apiBase={props.apiBase}
-            plan={props.plan}
-            home={props.home}
-            events={mapEvents}
-            selectedEventId={selectedId}
-            onSelectEvent={select}
-            focus={range}
-            cursorS={cursorS}
-            tileUrl={props.tileUrl}
-            tileAttribution={props.tileAttribution}
-            distanceUnit={units}
-          />
-        </div>
+        {!props.bench && (
+          <div className="panel min-w-0 p-2 sm:p-3 lg:sticky lg:top-20 lg:self-start">
+            <TrackMap
+              runId={runId}
+              version={props.version}
+              apiBase={props.apiBase}
+              plan={props.plan}
+              home={props.home}
+              missionStart={props.missionStart}
+              events={mapEvents}
+              selectedEventId={selectedId}
+              onSelectEvent={select}
+              focus={range}
+              cursorS={cursorS}
+              tileUrl={props.tileUrl}
+              tileAttribution={props.tileAttribution}
+              distanceUnit={units}
+            />
+          </div>
+        )}
       </div>
       <div className="mt-4">
         <h3 className="mb-2 text-lg font-semibold">
           Events <span className="figures text-ink-soft">({events.length.toLocaleString("en")})</span>
         </h3>
-        <EventsTable events={events} selectedId={selectedId} onSelect={select} units={units} linkUnit={props.link.unit} />
+        <EventsTable events={events} selectedId={selectedId} onSelect={select} units={units} linkUnit={props.link.unit} bench={props.bench} />
       </div>
     </section>
   );

@@ -9,6 +9,8 @@ export interface TimelineMark {
   endS: number;
   tone: EventTone;
   label: string;
+  /** Where a loss's lead-in fade began (drawn as a lower bar before the mark). */
+  leadInS?: number | null;
 }
 
 const toneFill: Record<EventTone, string> = { act: "var(--color-act)", watch: "var(--color-watch)", info: "var(--color-tide-700)" };
@@ -40,22 +42,27 @@ export function EventTimeline(props: {
           const h = H * toneHeight[m.tone];
           const w = Math.max(3, x(m.endS) - x(m.startS));
           const selected = m.id === selectedId;
+          const leadIn = m.leadInS != null && m.leadInS < m.startS ? m.leadInS : null;
           return (
-            <rect
-              key={m.id}
-              x={x(m.startS)}
-              y={H - h}
-              width={w}
-              height={h}
-              fill={toneFill[m.tone]}
-              opacity={selected ? 1 : 0.75}
-              stroke={selected ? "var(--color-ink)" : "none"}
-              strokeWidth={selected ? 2 : 0}
-              className="cursor-pointer"
-              onClick={() => onSelect(m.id)}
-            >
-              <title>{`${m.label} at ${formatClock(m.startS)}`}</title>
-            </rect>
+            <g key={m.id}>
+              {leadIn != null && (
+                <rect x={x(leadIn)} y={H - H * toneHeight.watch} width={Math.max(1, x(m.startS) - x(leadIn))} height={H * toneHeight.watch} fill={toneFill.watch} opacity={0.55} aria-hidden="true" />
+              )}
+              <rect
+                x={x(m.startS)}
+                y={H - h}
+                width={w}
+                height={h}
+                fill={toneFill[m.tone]}
+                opacity={selected ? 1 : 0.75}
+                stroke={selected ? "var(--color-ink)" : "none"}
+                strokeWidth={selected ? 2 : 0}
+                className="cursor-pointer"
+                onClick={() => onSelect(m.id)}
+              >
+                <title>{`${m.label} at ${formatClock(m.startS)}`}</title>
+              </rect>
+            </g>
           );
         })}
       </svg>

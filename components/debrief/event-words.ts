@@ -1,4 +1,5 @@
-import { formatLength, formatSpeed, type Units } from "@/lib/format/units";
+import { commandedWords, fadeLeadInWords, failsafeOutcomeWords, flownWords, type FailsafeCommanded, type FailsafeFlown } from "@/lib/analysis/evidence";
+import { formatClock, formatLength, formatSpeed, type Units } from "@/lib/format/units";
 
 export type EventTone = "act" | "watch" | "info";
 
@@ -31,30 +32,43 @@ const words: Record<string, { label: string; tone: EventTone }> = {
   disarmed: { label: "Disarmed", tone: "info" },
 };
 
+const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
+
+/** "Link lost (faded from 1:51)", "Failsafe (acted as planned)", "Waypoint reached: Slipway". */
 export function eventLabel(e: Pick<DebriefEvent, "kind" | "detail">): string {
   const base = words[e.kind]?.label ?? e.kind;
   const d = e.detail ?? {};
   if ((e.kind === "waypoint-reached" || e.kind === "waypoint-missed") && typeof d.waypoint === "string") return `${base}: ${d.waypoint}`;
-  if (e.kind === "failsafe" && typeof d.outcome === "string") return `${base} (${outcomeWords[d.outcome] ?? d.outcome})`;
+  if (e.kind === "failsafe" && typeof d.outcome === "string") return `${base} (${lower(failsafeOutcomeWords(d.outcome))})`;
+  if (e.kind === "link-lost" && typeof d.fadeStartS === "number") return `${base} (${fadeLeadInWords(formatClock(d.fadeStartS))})`;
   return base;
 }
 
-const outcomeWords: Record<string, string> = {
-  pass: "as planned",
-  "no-plan": "no plan to judge by",
-  late: "late",
-  "wrong-action": "wrong action",
-  "not-triggered": "did not trigger",
-  "not-due": "not judged",
-};
+/**
+ * What the event's detail adds, in a line under its label: a failsafe's commanded and flown halves
+ * (DESIGN.md §10 "Failsafe is set in two places"); null when there is nothing more to say.
+ */
+export function eventDetail(e: Pick<DebriefEvent, "kind" | "detail">): string | null {
+  const d = e.detail ?? {};
+  if (e.kind === "failsafe" && ("commanded" in d || "flown" in d)) {
+    return `commanded: ${commandedWords(d.commanded as FailsafeCommanded | null)} · flown: ${flownWords(d.flown as FailsafeFlown | null)}`;
+  }
+  return null;
+}
 
-/** A failsafe that acted as planned is information, not an alarm. */
+/** A failsafe that acted as planned is information, not an alarm; one nobody could judge is to watch. */
 export function eventTone(e: Pick<DebriefEvent, "kind" | "detail">): EventTone {
   if (e.kind === "failsafe") {
     const outcome = e.detail?.outcome as string | undefined;
-    return outcome === "pass" ? "info" : outcome === "no-plan" || outcome === "not-due" ? "watch" : "act";
+    return outcome === "pass" ? "info" : outcome === "not-assessed" || outcome === "no-plan" || outcome === "not-due" ? "watch" : "act";
   }
   return words[e.kind]?.tone ?? "info";
+}
+
+/** Where a link loss's lead-in fade began (link-lost `detail.fadeStartS`), s from the run's start. */
+export function fadeLeadIn(e: Pick<DebriefEvent, "kind" | "detail" | "startS">): number | null {
+  const v = e.kind === "link-lost" ? e.detail?.fadeStartS : undefined;
+  return typeof v === "number" && Number.isFinite(v) && v < e.startS ? v : null;
 }
 
 /** The event's worst value in words: "LQ 42 % (fade below 70 %)", "1.4 s to act (plan 2 s)". */
@@ -68,7 +82,7 @@ export function eventPeak(e: DebriefEvent, units: Units, linkUnit: string | null
     case "link-lost":
       return `${round(p)} ${linkUnit ?? ""}`.trim() + (th != null ? " (at its floor)" : "");
     case "failsafe":
-      return `${p.toFixed(1)} s to act` + (th != null ? ` (plan ${th} s)` : "");
+      return `first sign ${p.toFixed(1)} s after the loss` + (th != null ? ` (plan ${th} s)` : "");
     case "waypoint-reached":
     case "waypoint-missed":
       return `closest ${formatLength(p, units)}` + (th != null ? ` (circle ${formatLength(th, units, 0)})` : "");
@@ -88,10 +102,12 @@ export function eventPeak(e: DebriefEvent, units: Units, linkUnit: string | null
 const round = (v: number) => (Math.abs(v) >= 10 ? v.toFixed(0) : v.toFixed(1));
 
 /** The range to show for an event: the event with context either side, inside the run. */
-export function eventWindow(e: Pick<DebriefEvent, "startS" | "endS">, durationS: number): { from: number; to: number } {
-  const len = Math.max(0, e.endS - e.startS);
+export function eventWindow(e: Pick<DebriefEvent, "startS" | "endS"> & Partial<Pick<DebriefEvent, "kind" | "detail">>, durationS: number): { from: number; to: number } {
+  // A loss that began as a fade is shown from the fade's onset.
+  const start = e.kind ? (fadeLeadIn({ kind: e.kind, detail: e.detail ?? null, startS: e.startS }) ?? e.startS) : e.startS;
+  const len = Math.max(0, e.endS - start);
   const pad = Math.max(10, len * 0.75);
-  const from = Math.max(0, e.startS - pad);
+  const from = Math.max(0, start - pad);
   const to = Math.min(durationS, e.endS + pad);
   return to > from ? { from, to } : { from: 0, to: durationS };
 }

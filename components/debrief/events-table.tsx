@@ -2,7 +2,7 @@
 
 import { useEffect, useRef, useState } from "react";
 import { formatClock, formatDistance, formatSpan, type Units } from "@/lib/format/units";
-import { eventLabel, eventPeak, eventTone, type DebriefEvent } from "./event-words";
+import { eventDetail, eventLabel, eventPeak, eventTone, type DebriefEvent } from "./event-words";
 
 const FIRST_ROWS = 200;
 const toneMark = { act: "■", watch: "▲", info: "●" } as const;
@@ -15,8 +15,10 @@ export function EventsTable(props: {
   onSelect: (id: number) => void;
   units: Units;
   linkUnit: string | null;
+  /** A bench run has no positions: no "From home" column. */
+  bench?: boolean;
 }) {
-  const { events, selectedId, onSelect, units, linkUnit } = props;
+  const { events, selectedId, onSelect, units, linkUnit, bench = false } = props;
   const [all, setAll] = useState(false);
   const selectedRow = useRef<HTMLTableRowElement>(null);
   const selectedIndex = events.findIndex((e) => e.id === selectedId);
@@ -38,13 +40,14 @@ export function EventsTable(props: {
             <th scope="col" className="px-3 py-2 font-medium">At</th>
             <th scope="col" className="px-3 py-2 text-right font-medium">Lasted</th>
             <th scope="col" className="px-3 py-2 font-medium">Worst</th>
-            <th scope="col" className="px-3 py-2 text-right font-medium">From home</th>
+            {!bench && <th scope="col" className="px-3 py-2 text-right font-medium">From home</th>}
           </tr>
         </thead>
         <tbody className="divide-y divide-rule">
           {shown.map((e) => {
             const tone = eventTone(e);
             const selected = e.id === selectedId;
+            const detail = eventDetail(e);
             return (
               <tr
                 key={e.id}
@@ -54,17 +57,20 @@ export function EventsTable(props: {
                 className={selected ? "bg-signal-100" : "hover:bg-tide-50"}
               >
                 <td className="px-3 py-1">
-                  <button type="button" onClick={() => onSelect(e.id)} className="flex min-h-10 w-full items-center gap-2 text-left font-medium">
+                  <button type="button" onClick={() => onSelect(e.id)} className="flex min-h-10 w-full items-baseline gap-2 py-1 text-left font-medium">
                     <span aria-hidden="true" className={toneText[tone]}>
                       {toneMark[tone]}
                     </span>
-                    {eventLabel(e)}
+                    <span>
+                      {eventLabel(e)}
+                      {detail && <span className="block text-xs font-normal text-ink-soft">{detail}</span>}
+                    </span>
                   </button>
                 </td>
                 <td className="figures px-3 py-1">{formatClock(e.startS)}</td>
                 <td className="figures px-3 py-1 text-right">{e.endS > e.startS ? formatSpan(e.endS - e.startS) : "—"}</td>
                 <td className="figures px-3 py-1">{eventPeak(e, units, linkUnit)}</td>
-                <td className="figures px-3 py-1 text-right">{formatDistance(e.distanceFromHomeM, units)}</td>
+                {!bench && <td className="figures px-3 py-1 text-right">{formatDistance(e.distanceFromHomeM, units)}</td>}
               </tr>
             );
           })}

@@ -13,8 +13,11 @@ import { trackUrl } from "@/components/charts/series-request";
 import type { TrackResponse } from "@/lib/series/types";
 import { formatDegrees, graticuleStep, graticuleValues } from "./graticule";
 import { binColour, linkBin, linkScale, type LinkScale } from "./link-colour";
+import { homeTitle, missionStartTitle, type MapHome, type MapMissionStart } from "./map-words";
 import { indexRange, nearestIndex } from "./nearest-time";
 import { groupByBin, trackPieces } from "./track-pieces";
+
+export type { MapHome, MapMissionStart } from "./map-words";
 
 export interface MapWaypoint {
   name: string;
@@ -41,7 +44,9 @@ export interface TrackMapProps {
   apiBase?: string;
   /** The route plan: dashed line through the waypoints, numbered marks, acceptance circles. */
   plan: { name: string; waypoints: MapWaypoint[] } | null;
-  home: { lat: number; lon: number } | null;
+  home: MapHome | null;
+  /** A flag where route following began; the first leg runs from here to waypoint 1. */
+  missionStart?: MapMissionStart | null;
   /** Pinned where they have a position. */
   events: MapEvent[];
   /** Highlighted, and panned into view. */
@@ -106,6 +111,13 @@ const HOME_SVG =
   `<path d="M14 3.5 25 13.5h-3V24H6V13.5H3Z" fill="${C.ink}" stroke="#ffffff" stroke-width="2" stroke-linejoin="round"/>` +
   `<rect x="12" y="17" width="4" height="7" fill="#ffffff"/></svg>`;
 
+// A flag on a pole: the mission's first leg starts here.
+const START_SVG =
+  `<svg width="26" height="28" viewBox="0 0 26 28" aria-hidden="true" focusable="false" style="display:block">` +
+  `<path d="M6 26V3" stroke="#ffffff" stroke-width="5" stroke-linecap="round"/>` +
+  `<path d="M6 26V3" stroke="${C.route}" stroke-width="2.5" stroke-linecap="round"/>` +
+  `<path d="M7 3.5h14l-3.5 4.5L21 12.5H7Z" fill="${C.route}" stroke="#ffffff" stroke-width="1.5" stroke-linejoin="round"/></svg>`;
+
 function waypointHtml(n: number): string {
   return (
     `<span style="display:flex;align-items:center;justify-content:center;box-sizing:border-box;width:22px;height:22px;margin:3px;` +
@@ -158,6 +170,7 @@ export function TrackMap({
   apiBase,
   plan,
   home,
+  missionStart = null,
   events,
   selectedEventId,
   onSelectEvent,
@@ -181,11 +194,12 @@ export function TrackMap({
   // Props that arrive as fresh objects each render are compared by content, so a parent's
   // re-render does not rebuild the pins (and take keyboard focus away from them).
   const planKey = plan ? JSON.stringify(plan) : "";
-  const homeKey = home ? `${home.lat},${home.lon}` : "";
+  const homeKey = home ? `${home.lat},${home.lon},${home.source ?? ""}` : "";
+  const startKey = missionStart ? `${missionStart.lat},${missionStart.lon},${missionStart.source},${missionStart.startS}` : "";
   const eventsKey = events.map((e) => [e.id, e.lat, e.lon, e.tone, e.kind, e.label, e.startS].join("|")).join(";");
   const focusKey = focus ? `${focus.from}:${focus.to}` : "";
-  const latest = useRef({ plan, home, events, focus, onSelectEvent, distanceUnit });
-  latest.current = { plan, home, events, focus, onSelectEvent, distanceUnit };
+  const latest = useRef({ plan, home, missionStart, events, focus, onSelectEvent, distanceUnit });
+  latest.current = { plan, home, missionStart, events, focus, onSelectEvent, distanceUnit };
 
   const markersRef = useRef(new Map<number, Leaflet.Marker>());
   const tipsRef = useRef(new Map<number, () => HTMLElement>());
@@ -391,12 +405,29 @@ export function TrackMap({
       keyboard: false,
       interactive: false,
       zIndexOffset: -500,
-      title: "Home",
+      title: homeTitle(home),
     }).addTo(map);
     return () => {
       mark.remove();
     };
   }, [ctx, homeKey]);
+
+  useEffect(() => {
+    const start = latest.current.missionStart;
+    if (!ctx || !start || !validPos(start.lat, start.lon)) return;
+    const { L, map } = ctx;
+    const mark = L.marker([start.lat, start.lon], {
+      // The pole's foot on the spot.
+      icon: L.divIcon({ className: "sortie-mission-start", html: START_SVG, iconSize: [26, 28], iconAnchor: [6, 26] }),
+      keyboard: false,
+      interactive: false,
+      zIndexOffset: -400,
+      title: missionStartTitle(start),
+    }).addTo(map);
+    return () => {
+      mark.remove();
+    };
+  }, [ctx, startKey]);
 
   // Event pins: focusable buttons; click, tap, Enter or Space selects.
   useEffect(() => {
@@ -573,7 +604,8 @@ export function TrackMap({
         noValue={trackInfo.noValue}
         hasTrack={!!track && trackInfo.points > 0}
         planName={hasPlan ? plan!.name : null}
-        hasHome={!!home}
+        home={home}
+        missionStart={missionStart}
         tones={tonesShown}
       />
     </section>
@@ -596,14 +628,16 @@ function MapLegend({
   noValue,
   hasTrack,
   planName,
-  hasHome,
+  home,
+  missionStart,
   tones,
 }: {
   scale: LinkScale | null;
   noValue: boolean;
   hasTrack: boolean;
   planName: string | null;
-  hasHome: boolean;
+  home: MapHome | null;
+  missionStart: MapMissionStart | null;
   tones: Tone[];
 }) {
   const unit = scale?.unit ?? "";
@@ -656,9 +690,15 @@ function MapLegend({
             </Swatch>
           </>
         ) : null}
-        {hasHome ? (
-          <Swatch label="Home">
+        {home ? (
+          <Swatch label={homeTitle(home)}>
             <path d="M14 1.5 21 8h-2v6.5H9V8H7Z" fill={C.ink} />
+          </Swatch>
+        ) : null}
+        {missionStart ? (
+          <Swatch label={missionStartTitle(missionStart)}>
+            <path d="M11 15V1.5" stroke={C.route} strokeWidth="2" strokeLinecap="round" />
+            <path d="M11.5 2h8l-2 2.5 2 2.5h-8Z" fill={C.route} />
           </Swatch>
         ) : null}
         {tones.map((tone) => (

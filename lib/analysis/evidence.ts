@@ -25,6 +25,14 @@ export const PART_WORDS: Record<AssessedPart, string> = {
   gps: "GPS",
 };
 
+/** The word a figure shows in place of a value for a part the log could not show. */
+export const NOT_ASSESSED_WORDS = "Not assessed";
+
+/** "Not assessed: failsafe — no link loss in this run to exercise it". */
+export function notAssessedWords(n: NotAssessed): string {
+  return `${NOT_ASSESSED_WORDS}: ${PART_WORDS[n.what] ?? n.what} — ${n.why}`;
+}
+
 /** What "nothing fired" means for each part that was assessed. */
 export const HELD_WORDS: Record<AssessedPart, string> = {
   link: "the link held",
@@ -33,6 +41,30 @@ export const HELD_WORDS: Record<AssessedPart, string> = {
   battery: "the battery stayed above its low-voltage limit",
   gps: "the GPS fix held",
 };
+
+/** "The link held, the failsafe acted as planned and the GPS fix held."; null when nothing was. */
+export function heldWords(held: readonly AssessedPart[]): string | null {
+  const clauses = held.map((p) => HELD_WORDS[p]).filter(Boolean);
+  if (clauses.length === 0) return null;
+  const list = clauses.length === 1 ? clauses[0] : `${clauses.slice(0, -1).join(", ")} and ${clauses[clauses.length - 1]}`;
+  return `${list.charAt(0).toUpperCase()}${list.slice(1)}.`;
+}
+
+/** The verdict's title when nothing fired but some parts could not be assessed. */
+export const CLEAR_FOR_ASSESSED_WORDS = "Clear for what was assessed";
+
+/** A stored summary from before `held`/`notAssessed` existed, with nothing fired: it cannot say what held. */
+export const LEGACY_CLEAR_WORDS =
+  "No rule fired. This run was analysed before Sortie recorded which parts a log can show; re-parse the log to see what was and was not assessed.";
+
+// ---- Bench runs ------------------------------------------------------------------------------
+
+/** A run whose log has no usable fix (summary.bench), DESIGN.md §10 "Bench failsafe test". */
+export const BENCH_WORDS = {
+  title: "Bench run: analysed for link and failsafe only",
+  body: "The log has no usable GPS fix, so there is no track: distance, speed, the map, the route and the range estimate are left out.",
+  loss: "On the bench a link loss is usually the test itself (the transmitter switched off): read it with the failsafe result.",
+} as const;
 
 // ---- Home -----------------------------------------------------------------------------------
 
@@ -97,6 +129,31 @@ export function failsafeResultWords(result: string): string {
   return FAILSAFE_RESULT_WORDS[result as FailsafeResult] ?? LEGACY_RESULT_WORDS[result] ?? result;
 }
 
+/** True for "not-assessed" and the older results that meant the same. */
+export function failsafeNotAssessed(result: string | null | undefined): boolean {
+  return result === "not-assessed" || (result != null && result in LEGACY_RESULT_WORDS);
+}
+
+/** Why an older stored result was not assessed (those summaries carry no `why`). */
+export const LEGACY_FAILSAFE_WHY: Record<string, string> = {
+  "not-tested": "no link loss in this run to exercise it",
+  "no-plan": "the build has no failsafe plan to judge it by",
+};
+
+/**
+ * One loss's outcome on a failsafe event (`detail.outcome`): the results above, plus "not-due" —
+ * the loss ended before the plan's time was up, so nothing was owed yet.
+ */
+export function failsafeOutcomeWords(outcome: string): string {
+  return outcome === "not-due" ? "Not due: the loss ended before the planned time" : failsafeResultWords(outcome);
+}
+
+/** "return to home within 1.5 s". */
+export function failsafePlanWords(plan: { action: string; expectedWithinS: number } | null | undefined): string | null {
+  if (!plan) return null;
+  return `${ACTION_WORDS[plan.action as FailsafeAction] ?? plan.action} within ${plan.expectedWithinS} s`;
+}
+
 /** Results that make the run "act". */
 export const FAILSAFE_ACT_RESULTS: readonly string[] = ["late", "wrong-action", "not-triggered"];
 
@@ -122,6 +179,11 @@ export type FailsafeFlown =
   | { state: "not-logged" };
 
 export const ACTION_WORDS: Record<FailsafeAction, string> = { "return-to-home": "return to home", hold: "hold", land: "land" };
+
+/** A link loss that began as a fade (link-lost `detail.fadeStartS`): "faded from 1:51". */
+export function fadeLeadInWords(fadeStartClock: string): string {
+  return `faded from ${fadeStartClock}`;
+}
 
 /** "Commanded 0.4 s after the loss (channel 8 at its failsafe value)". */
 export function commandedWords(c: FailsafeCommanded | null | undefined): string {

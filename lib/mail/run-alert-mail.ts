@@ -1,4 +1,5 @@
 import { summaryFigures, type RunSummary } from "@/components/debrief/figure-list";
+import { VERDICT_TITLES, verdictLines } from "@/components/debrief/verdict-words";
 import { cleanText } from "@/lib/reports/layout";
 import type { Units } from "@/lib/format/units";
 import { escapeHtml, layout } from "./templates";
@@ -33,7 +34,12 @@ export function runAlertMail(a: RunAlertArgs): Mail {
   const title = line(a.run.title) || `Run ${a.run.id}`;
   const figures = summaryFigures(a.run.summary, a.units)
     .filter((f) => KEY_FIGURES.includes(f.label))
-    .map((f) => ({ label: f.label, value: f.sub ? `${f.value} (${f.sub})` : f.value }));
+    .map((f) => {
+      const more = [f.sub, ...(f.detail ?? [])].filter(Boolean).join("; ");
+      return { label: f.label, value: more ? `${f.value} (${more})` : f.value };
+    });
+  // What the log could not show, so "act" is read with its gaps (DESIGN.md §10 "Evidence, not absence").
+  const gaps = a.run.summary.verdict ? verdictLines(a.run.summary.verdict).notAssessed.map(line) : [];
   const context = [a.buildName && line(a.buildName), a.pilotName && `pilot ${line(a.pilotName)}`, a.run.startedAt && `log started ${a.run.startedAt.toUTCString()}`]
     .filter(Boolean)
     .join(" · ");
@@ -45,17 +51,19 @@ export function runAlertMail(a: RunAlertArgs): Mail {
     `The run "${title}" of ${crew} was analysed with the verdict ACT: act before the next run.\n` +
     (context ? `${context}\n` : "") +
     `\nWhy:\n${reasons.map((r) => `- ${r}`).join("\n")}\n\n` +
+    (gaps.length ? `${gaps.join("\n")}\n\n` : "") +
     `Key figures:\n${figures.map((f) => `${f.label}: ${f.value}`).join("\n")}\n\n` +
     `Open the debrief: ${a.url}\n\n` +
     `You get this because you lead ${crew} and have verdict alerts on. Turn these off in Settings: ${a.settingsUrl}`;
 
   const html = layout(
-    `Act before the next run: ${escapeHtml(title)}`,
+    `${VERDICT_TITLES.act}: ${escapeHtml(title)}`,
     [
       `Hello ${escapeHtml(line(a.name))},`,
       `The run <b>${escapeHtml(title)}</b> of ${escapeHtml(crew)} was analysed with the verdict <b style="color:#b42318">act</b>.` +
         (context ? `<br><span style="color:#51636e">${escapeHtml(context)}</span>` : ""),
       `<b>Why</b><br>${reasons.map((r) => `&bull; ${escapeHtml(r)}`).join("<br>")}`,
+      ...(gaps.length ? [gaps.map((g) => escapeHtml(g)).join("<br>")] : []),
       `<b>Key figures</b><br>${figures.map((f) => `${escapeHtml(f.label)}: ${escapeHtml(f.value)}`).join("<br>")}`,
     ],
     { label: "Open the debrief", url: a.url },
@@ -65,7 +73,7 @@ export function runAlertMail(a: RunAlertArgs): Mail {
   return {
     to: a.to,
     // A header: one line, and short enough for a phone's list.
-    subject: `Act before the next run: ${title.length > 90 ? `${title.slice(0, 89)}…` : title}`,
+    subject: `${VERDICT_TITLES.act}: ${title.length > 90 ? `${title.slice(0, 89)}…` : title}`,
     text,
     html,
   };

@@ -5,9 +5,13 @@
  * OFL; see pdf-text.ts), so the document is searchable and copyable.
  */
 import PDFDocument from "pdfkit";
-import { eventLabel, eventPeak, eventTone, type DebriefEvent, type EventTone } from "@/components/debrief/event-words";
+import { linkChart } from "@/components/debrief/chart-panels";
+import { eventDetail, eventLabel, eventPeak, eventTone, type DebriefEvent, type EventTone } from "@/components/debrief/event-words";
 import { summaryFigures, type RunSummary } from "@/components/debrief/figure-list";
+import { verdictLines } from "@/components/debrief/verdict-words";
+import { homeTitle, missionStartTitle } from "@/components/map/map-words";
 import { safetyTexts } from "@/components/ui/safety-texts";
+import { BENCH_WORDS } from "@/lib/analysis/evidence";
 import { audit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/actor";
 import { ConflictError } from "@/lib/errors";
@@ -42,14 +46,10 @@ const colour = {
 const toneColour: Record<EventTone, string> = { act: colour.act, watch: colour.watch, info: colour.tide };
 
 const verdictLook = {
-  act: { title: "Act before the next run", colour: colour.act, tint: "#f8e5e3" },
-  watch: { title: "Watch", colour: colour.watch, tint: "#f8eddb" },
-  clear: { title: "Clear", colour: colour.clear, tint: "#e3f0ea" },
+  act: { colour: colour.act, tint: "#f8e5e3" },
+  watch: { colour: colour.watch, tint: "#f8eddb" },
+  clear: { colour: colour.clear, tint: "#e3f0ea" },
 } as const;
-
-/** The analysis names its link metric by kind (lib/analysis/link.ts); the levels by sample field. */
-const linkField: Record<string, SeriesField> = { lq: "lqPct", "rssi-pct": "rssiPct", "rssi-dbm": "rssiDbm" };
-const linkLabel: Record<string, string> = { lqPct: "Link quality", rssiPct: "RSSI", rssiDbm: "RSSI" };
 
 export interface DebriefReportInput {
   debrief: Debrief;
@@ -59,15 +59,15 @@ export interface DebriefReportInput {
   generatedAt: Date;
 }
 
-type Summary = RunSummary & { verdict?: { level: keyof typeof verdictLook; reasons: string[] }; fieldsPresent?: string[]; home?: LatLon | null };
+type Summary = RunSummary & { fieldsPresent?: string[] };
 
 const utc = (d: Date) => d.toISOString().replace("T", " ").slice(0, 16) + " UTC";
 
-/** Chart fields this run's log carries: the judged link metric, altitude, pack voltage. */
+/** Chart fields this run's log carries: the judged link metric (a derived field when read from an RC channel), altitude, pack voltage. */
 export function chartFields(summary: Summary): SeriesField[] {
   const present = summary.fieldsPresent ?? [];
-  const link = summary.link?.metric ? linkField[summary.link.metric] : undefined;
-  return [link, "altM", "voltageV"].filter((f): f is SeriesField => !!f && present.includes(f));
+  const link = summary.link ? linkChart(summary.link, present)?.field : undefined;
+  return [...(link ? [link] : []), ...(["altM", "voltageV"] as const).filter((f) => present.includes(f))];
 }
 
 /**
@@ -164,16 +164,54 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
   write(`Log ${run.upload.fileName} · ${run.sampleCount.toLocaleString("en")} samples · ${formatSpan(run.durationS)} · figures in ${units} units`, left, doc.y, { width });
   gap(10);
 
+  // A bench run says so first: what it leaves out, and the bench caution.
+  const bench = summary.bench === true;
+  if (bench) {
+    const lines = [BENCH_WORDS.body, ...((summary.link?.lostCount ?? 0) > 0 ? [BENCH_WORDS.loss] : [])];
+    use("semibold", 11);
+    let h = pt.height(BENCH_WORDS.title, width - 24) + 4;
+    use("sans", 9);
+    for (const l of lines) h += pt.height(l, width - 24) + 2;
+    h += pt.height(safetyTexts.bench, width - 24) + 8 + 16;
+    need(h + 8);
+    const y0 = doc.y;
+    doc.rect(left, y0, width, h).lineWidth(0.8).strokeColor(colour.rule).stroke();
+    use("semibold", 11, colour.ink);
+    write(BENCH_WORDS.title, left + 12, y0 + 8, { width: width - 24 });
+    gap(4);
+    use("sans", 9, colour.ink);
+    for (const l of lines) {
+      write(l, left + 12, doc.y, { width: width - 24 });
+      gap(2);
+    }
+    const cy = doc.y + 4;
+    use("sans", 9);
+    const ch = pt.height(safetyTexts.bench, width - 40) + 8;
+    doc.rect(left + 8, cy, width - 16, ch).fill(colour.signalTint);
+    doc.rect(left + 8, cy, 4, ch).fill(colour.signal);
+    use("sans", 9, colour.ink);
+    write(safetyTexts.bench, left + 20, cy + 4, { width: width - 40 });
+    doc.x = left;
+    doc.y = y0 + h + 8;
+  }
+
   // Verdict and sign-off.
   const verdict = summary.verdict ?? null;
   if (verdict && verdict.level in verdictLook) {
     const look = verdictLook[verdict.level];
+    const words = verdictLines(verdict);
     const pad = 10;
     const signW = 150;
     const textW = width - 2 * pad - 6 - signW - 12;
-    const reasons = verdict.reasons.length ? verdict.reasons.map((r) => `•  ${r}`) : ["No rule fired: the link held, the failsafe was not needed, the route and battery stayed in limits."];
+    // Reasons that fired, what held, what the log could not show (or, for an older summary, that it cannot say).
+    const reasons = [
+      ...words.reasons.map((r) => `•  ${r}`),
+      ...(words.held ? [words.held] : []),
+      ...words.notAssessed.map((n) => `–  ${n}`),
+      ...(words.legacy ? [words.legacy] : []),
+    ];
     use("semibold", 13);
-    const titleH = pt.height(look.title, textW);
+    const titleH = pt.height(words.title, textW);
     use("sans", 9.5);
     const reasonsH = reasons.reduce((h, r) => h + pt.height(r, textW) + 2, 0);
     const signText = d.signOff ? `Signed off by ${cleanText(d.signOff.by)}\n${utc(d.signOff.at)}` : "Not signed off";
@@ -184,7 +222,7 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     doc.rect(left, y0, width, h).fill(look.tint);
     doc.rect(left, y0, 6, h).fill(look.colour);
     use("semibold", 13, look.colour);
-    write(look.title, left + 6 + pad, y0 + pad, { width: textW });
+    write(words.title, left + 6 + pad, y0 + pad, { width: textW });
     gap(4);
     use("sans", 9.5);
     for (const r of reasons) {
@@ -212,10 +250,8 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
       let h = pt.height(fig.label, cw - 16);
       use("medium", 12.5);
       h += pt.height(fig.value, cw - 16) + 2;
-      if (fig.sub) {
-        use("sans", 7.5);
-        h += pt.height(fig.sub, cw - 16) + 2;
-      }
+      use("sans", 7.5);
+      for (const line of [fig.sub, ...(fig.detail ?? [])]) if (line) h += pt.height(line, cw - 16) + 2;
       return h + 14;
     });
     const h = Math.max(...hs);
@@ -224,24 +260,31 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     row.forEach((fig, j) => {
       const x = left + j * (cw + cg);
       const border = fig.tone === "act" ? colour.act : fig.tone === "watch" ? colour.watch : colour.rule;
-      doc.roundedRect(x, y0, cw, h, 4).lineWidth(fig.tone ? 1.2 : 0.7).strokeColor(border).stroke();
+      const strong = fig.tone === "act" || fig.tone === "watch";
+      // A part the log could not show: dashed, and its word in the soft colour.
+      if (fig.tone === "muted") doc.dash(3, { space: 2 });
+      doc.roundedRect(x, y0, cw, h, 4).lineWidth(strong ? 1.2 : 0.7).strokeColor(border).stroke();
+      doc.undash();
       use("sans", 8, colour.soft);
       write(fig.label, x + 8, y0 + 7, { width: cw - 16 });
-      use("medium", 12.5, colour.ink);
+      use("medium", 12.5, fig.tone === "muted" ? colour.soft : colour.ink);
       write(fig.value, x + 8, doc.y + 1, { width: cw - 16 });
-      if (fig.sub) {
+      for (const line of [fig.sub, ...(fig.detail ?? [])]) {
+        if (!line) continue;
         use("sans", 7.5, colour.soft);
-        write(fig.sub, x + 8, doc.y + 2, { width: cw - 16 });
+        write(line, x + 8, doc.y + 2, { width: cw - 16 });
       }
     });
     doc.x = left;
     doc.y = y0 + h + cg;
   }
 
-  // Track drawing.
-  heading("Track", input.track?.t.length ? 310 : 20);
+  // Track drawing: a bench run has none to draw.
   const events = d.events as DebriefEvent[];
-  drawTrack();
+  if (!bench) {
+    heading("Track", input.track?.t.length ? 310 : 20);
+    drawTrack();
+  }
 
   // Charts from the whole-run levels.
   heading("Charts", 110);
@@ -280,7 +323,7 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
 
   // Standing cautions: always printed, a paper copy travels without the page around it.
   heading("Cautions");
-  const cautions: string[] = [safetyTexts.failsafe, safetyTexts.battery];
+  const cautions: string[] = [bench ? safetyTexts.bench : safetyTexts.failsafe, safetyTexts.battery];
   if (summary.range?.estimatedRangeM != null) cautions.push(safetyTexts.range);
   cautions.push(safetyTexts.general);
   for (const c of cautions) {
@@ -313,7 +356,8 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
 
   function drawTrack() {
     const tr = input.track;
-    const home = summary.home ?? null;
+    const home: LatLon | null = summary.home ?? null;
+    const start = summary.route?.start ?? null;
     const n = tr?.t.length ?? 0;
     if (!tr || n === 0) {
       use("sans", 9.5, colour.soft);
@@ -327,7 +371,7 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     const project = localProjection(ref);
     const pts: XY[] = Array.from({ length: n }, (_, i) => project({ lat: tr.lat[i], lon: tr.lon[i] }));
     const wps = (d.plan?.waypoints ?? []).map((w) => ({ ...w, p: project(w) }));
-    const bounds = boundsOf([...pts, ...wps.map((w) => w.p), ...(home ? [project(home)] : [])])!;
+    const bounds = boundsOf([...pts, ...wps.map((w) => w.p), ...(home ? [project(home)] : []), ...(start ? [project(start)] : [])])!;
     const fit = fitToBox(bounds, box, 22);
     const at = (p: XY) => fit.toPage(p);
 
@@ -385,6 +429,10 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
       if (e.lat == null || e.lon == null) continue;
       mark(at(project({ lat: e.lat, lon: e.lon })), eventTone(e));
     }
+    if (start) {
+      const c = at(project(start));
+      flag(c);
+    }
     if (home) {
       const c = at(project(home));
       doc.circle(c.x, c.y, 4.5).lineWidth(1.6).strokeColor(colour.ink).stroke();
@@ -416,24 +464,38 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     doc.restore();
     doc.rect(box.x, box.y, box.w, box.h).lineWidth(0.7).strokeColor(colour.rule).stroke();
 
-    // Legend.
+    // Legend, wrapped onto more lines when it does not fit one.
     doc.y = box.y + box.h + 6;
     let x = left;
-    const ly = doc.y + 4;
-    const item = (draw: (x: number) => number, label: string) => {
-      const w0 = draw(x);
+    let ly = doc.y + 4;
+    const item = (w0: number, draw: (x: number) => unknown, label: string) => {
+      use("sans", 7.5, colour.soft);
+      const w = w0 + 4 + pt.widthOf(label);
+      if (x > left && x + w > left + width) {
+        x = left;
+        ly += 12;
+      }
+      draw(x);
       use("sans", 7.5, colour.soft);
       pt.cell(label, x + w0 + 4, ly - 3.5);
-      x += w0 + 4 + pt.widthOf(label) + 12;
+      x += w + 12;
     };
-    item((x0) => (doc.lineWidth(1.3).strokeColor(colour.tide).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke(), 16), "track");
-    if (fade != null && tr.metric) item((x0) => (doc.lineWidth(3).strokeColor(colour.watch).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke(), 16), `link below the fade threshold (${fade}${tr.metric ? ` ${tr.metric.unit}` : ""})`);
-    if (wps.length) item((x0) => (doc.lineWidth(1).strokeColor(colour.soft).dash(4, { space: 3 }).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke().undash(), 16), "route plan and waypoint circles");
-    item((x0) => (mark({ x: x0 + 4, y: ly }, "act"), 8), "act");
-    item((x0) => (mark({ x: x0 + 4, y: ly }, "watch"), 8), "watch");
-    item((x0) => (mark({ x: x0 + 4, y: ly }, "info"), 8), "event");
+    item(16, (x0) => doc.lineWidth(1.3).strokeColor(colour.tide).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke(), "track");
+    if (fade != null && tr.metric) item(16, (x0) => doc.lineWidth(3).strokeColor(colour.watch).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke(), `link below the fade threshold (${fade}${tr.metric ? ` ${tr.metric.unit}` : ""})`);
+    if (wps.length) item(16, (x0) => doc.lineWidth(1).strokeColor(colour.soft).dash(4, { space: 3 }).moveTo(x0, ly).lineTo(x0 + 16, ly).stroke().undash(), "route plan and waypoint circles");
+    item(8, (x0) => mark({ x: x0 + 4, y: ly }, "act"), "act");
+    item(8, (x0) => mark({ x: x0 + 4, y: ly }, "watch"), "watch");
+    item(8, (x0) => mark({ x: x0 + 4, y: ly }, "info"), "event");
+    if (home) item(9, (x0) => (doc.circle(x0 + 4.5, ly, 4.5).lineWidth(1.6).strokeColor(colour.ink).stroke(), doc.circle(x0 + 4.5, ly, 1.4).fill(colour.ink)), homeTitle(summary.home ?? {}));
+    if (start) item(10, (x0) => flag({ x: x0 + 2, y: ly + 4 }), missionStartTitle(start));
     doc.x = left;
     doc.y = ly + 10;
+  }
+
+  /** The mission start: a small flag whose pole's foot is on the spot. */
+  function flag(c: XY) {
+    doc.lineWidth(1.2).strokeColor(colour.signal).moveTo(c.x, c.y).lineTo(c.x, c.y - 11).stroke();
+    doc.moveTo(c.x + 0.5, c.y - 11).lineTo(c.x + 8, c.y - 11).lineTo(c.x + 6, c.y - 8.5).lineTo(c.x + 8, c.y - 6).lineTo(c.x + 0.5, c.y - 6).closePath().fill(colour.signal);
   }
 
   function mark(c: XY, tone: EventTone) {
@@ -448,13 +510,13 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     const s = input.series;
     const duration = run.durationS ?? summary.durationS ?? s?.to ?? 0;
     const link = summary.link;
-    const lf = link?.metric ? linkField[link.metric] : undefined;
+    const judged = link ? linkChart(link, summary.fieldsPresent ?? []) : null;
     const len = lengthConversion(units);
     const panels: { field: SeriesField; title: string; unit: string; convert?: (v: number) => number; threshold?: { value: number; label: string } }[] = [];
-    if (lf) {
+    if (judged) {
       panels.push({
-        field: lf,
-        title: `${linkLabel[lf] ?? lf} — the link metric judged`,
+        field: judged.field,
+        title: judged.title,
         unit: link?.unit ?? "",
         threshold: link?.fadeThreshold != null ? { value: link.fadeThreshold, label: `fade threshold ${link.fadeThreshold} ${link.unit ?? ""}`.trim() } : undefined,
       });
@@ -551,12 +613,14 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
       return;
     }
     const linkUnit = summary.link?.unit ?? null;
+    // A bench run has no positions: its "Worst" column takes the room of "From home".
+    const fromHomeW = bench ? 0 : width - 168 - 50 - 62 - 156;
     const cols = [
       { label: "Event", w: 168, align: "left" as const },
       { label: "At", w: 50, align: "left" as const },
       { label: "Lasted", w: 62, align: "right" as const },
-      { label: "Worst", w: 156, align: "left" as const },
-      { label: "From home", w: width - 168 - 50 - 62 - 156, align: "right" as const },
+      { label: "Worst", w: width - 168 - 50 - 62 - fromHomeW, align: "left" as const },
+      ...(bench ? [] : [{ label: "From home", w: fromHomeW, align: "right" as const }]),
     ];
     const rowH = 13;
     const header = () => {
@@ -574,19 +638,23 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
     header();
     const rows = events.slice(0, MAX_EVENT_ROWS);
     rows.forEach((e, i) => {
-      if (doc.y + rowH > bottom()) {
+      // A failsafe's commanded and flown halves go on a second line across the row.
+      const detail = eventDetail(e);
+      use("sans", 7.5);
+      const detailH = detail ? pt.height(detail, width - 20) + 2 : 0;
+      if (doc.y + rowH + detailH > bottom()) {
         doc.addPage();
         header();
       }
       const y = doc.y;
-      if (i % 2 === 1) doc.rect(left, y, width, rowH).fill("#faf8f3");
+      if (i % 2 === 1) doc.rect(left, y, width, rowH + detailH).fill("#faf8f3");
       const tone = eventTone(e);
       const cells = [
         eventLabel(e),
         formatClock(e.startS),
         e.endS > e.startS ? formatSpan(e.endS - e.startS) : "—",
         eventPeak(e, units, linkUnit),
-        formatDistance(e.distanceFromHomeM, units),
+        ...(bench ? [] : [formatDistance(e.distanceFromHomeM, units)]),
       ];
       let x = left;
       cells.forEach((text, j) => {
@@ -601,7 +669,12 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
         }
         x += c.w;
       });
-      doc.y = y + rowH;
+      if (detail) {
+        use("sans", 7.5, colour.soft);
+        write(detail, left + 16, y + rowH - 1, { width: width - 20 });
+      }
+      doc.x = left;
+      doc.y = y + rowH + detailH;
     });
     doc.moveTo(left, doc.y).lineTo(left + width, doc.y).lineWidth(0.6).strokeColor(colour.rule).stroke();
     doc.x = left;

@@ -30,7 +30,9 @@ export async function seedDemoRuns(): Promise<{ added: number; skipped: number }
       continue;
     }
     const [build] = await db().select({ id: builds.id }).from(builds).where(and(eq(builds.crewId, crew.id), eq(builds.name, log.build)));
-    const [plan] = await db().select({ id: routePlans.id }).from(routePlans).where(and(eq(routePlans.crewId, crew.id), eq(routePlans.name, log.routePlan)));
+    const [plan] = log.routePlan
+      ? await db().select({ id: routePlans.id }).from(routePlans).where(and(eq(routePlans.crewId, crew.id), eq(routePlans.name, log.routePlan)))
+      : [];
     const body = Buffer.from(log.body, "utf8");
     const created = await createUpload(actor, crew.id, {
       fileName: log.fileName,

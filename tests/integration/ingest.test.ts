@@ -182,7 +182,8 @@ describe("log ingest", () => {
       sql`SELECT r.status, r.format, r.sample_count, u.file_name FROM runs r JOIN crews c ON c.id = r.crew_id JOIN uploads u ON u.id = r.upload_id WHERE c.name = ${demoCrew.name}`,
     )) as unknown as [{ status: string; format: string; sample_count: number; file_name: string }[]];
     const rows = all.filter((r) => names.includes(r.file_name));
-    expect(rows.map((r) => r.format).sort()).toEqual(["csv", "gpx", "nmea"]);
+    // The rover's CSV, the bench failsafe test's CSV, the GPX track and the NMEA log.
+    expect(rows.map((r) => r.format).sort()).toEqual(["csv", "csv", "gpx", "nmea"]);
     for (const r of rows) {
       expect(r.status).toBe("ready");
       expect(r.sample_count).toBeGreaterThan(100);

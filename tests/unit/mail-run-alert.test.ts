@@ -43,6 +43,35 @@ describe("runAlertMail", () => {
     expect(m.text).toContain("http://localhost:3000/settings");
   });
 
+  it("lists what the log could not show, and the failsafe's commanded and flown halves", () => {
+    const m = runAlertMail({
+      ...base,
+      run: {
+        ...base.run,
+        summary: {
+          ...base.run.summary,
+          failsafe: {
+            result: "late",
+            why: null,
+            plan: { action: "return-to-home", expectedWithinS: 1 },
+            commanded: { by: "rc-channel", channel: 8, atS: 20.4, latencyS: 0.4 },
+            flown: { state: "seen", by: "mode", action: "return-to-home", atS: 21.8, latencyS: 1.8, mode: "RTH", evidence: null },
+            latencyS: 0.4,
+            actionLatencyS: 1.8,
+            action: "return-to-home",
+          },
+          verdict: { level: "act", reasons: ["Link lost once", "Failsafe acted later than planned"], held: [], notAssessed: [{ what: "route", why: "no route plan is attached to the run" }] },
+        },
+      },
+    });
+    for (const part of [m.text, m.html]) {
+      expect(part).toContain("Not assessed: route — no route plan is attached to the run");
+      expect(part).toContain("Acted late");
+      expect(part).toContain("commanded: 0.4 s after the loss (channel 8 at its failsafe value)");
+      expect(part).toContain("flown: return to home 1.8 s after the loss (mode RTH)");
+    }
+  });
+
   it("uses the lead's units", () => {
     const m = runAlertMail({ ...base, units: "imperial" });
     // 659.5 m / 1609.344 m per mi = 0.41 mi (NIST SP 811, Appendix B).

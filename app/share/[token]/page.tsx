@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { DebriefBody } from "@/components/debrief/debrief-body";
-import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
+import { BenchNotice } from "@/components/debrief/bench-notice";
+import { utcMinute, VerdictStrip } from "@/components/debrief/verdict-strip";
 import { NotesSection } from "@/components/debrief/notes-section";
 import { RunCautions } from "@/components/debrief/run-cautions";
 import type { RunSummary } from "@/components/debrief/summary-figures";
@@ -30,7 +31,7 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
   const { run } = d;
   const units = "metric" as const;
   const apiBase = `/api/share/${encodeURIComponent(token)}`;
-  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: VerdictLevel; reasons: string[] }; fieldsPresent?: string[] };
+  const summary = (run.summary ?? {}) as RunSummary & { fieldsPresent?: string[] };
   const ready = run.status === "ready";
   const verdict = ready ? (summary.verdict ?? null) : null;
   const meta = [d.buildName, d.pilotName && `pilot ${d.pilotName}`, d.plan && `plan “${d.plan.name}”`, run.startedAt && utc(run.startedAt)].filter(Boolean).join(" · ");
@@ -56,6 +57,8 @@ export default async function SharedDebriefPage({ params }: { params: Promise<{ 
           This debrief is being updated right now. Reload the page in a minute.
         </p>
       )}
+
+      {ready && summary.bench === true && <BenchNotice linkLost={(summary.link?.lostCount ?? 0) > 0} />}
 
       {verdict && <VerdictStrip verdict={verdict} signOff={d.signOff} />}
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { chartPanels, panelConversions } from "@/components/debrief/chart-panels";
+import { chartPanels, linkChart, panelConversions } from "@/components/debrief/chart-panels";
 
 describe("chartPanels", () => {
   const all = ["tS", "lat", "lon", "altM", "speedMps", "rssiDbm", "lqPct", "snrDb", "voltageV", "currentA"];
@@ -20,4 +20,21 @@ describe("chartPanels", () => {
     expect(panelConversions("imperial").altM!(0.3048)).toBeCloseTo(1, 12);
     expect(panelConversions("metric")).toEqual({});
   });
+
+  it("charts RSSI read from the link sheet's channel as the derived field, with a title naming the channel", () => {
+    // A bench test: no position, no RSSI column; the RSSI is on channel 14 (DESIGN.md §10).
+    const bench = ["tS", "voltageV", "currentA", "armed"];
+    const panels = chartPanels(bench, false, { metric: "rssi-pct", unit: "%", fadeThreshold: 40, source: { kind: "rc-channel", channel: 14 } }, "metric");
+    expect(panels.map((p) => p.id)).toEqual(["link", "voltage", "current"]);
+    expect(panels[0].series).toEqual([{ field: "rssiRcPct", label: "RSSI (channel 14)" }]);
+    expect(panels[0].title).toBe("RSSI from channel 14 — the link metric judged");
+    expect(panels[0].thresholds).toEqual([{ value: 40, label: "fade threshold" }]);
+  });
+
+  it("keeps the column when the column was judged, and charts nothing for a link the log lacks", () => {
+    expect(linkChart({ metric: "rssi-pct", unit: "%", fadeThreshold: 40, source: { kind: "column" } }, ["rssiPct"])!.field).toBe("rssiPct");
+    expect(linkChart({ metric: "rssi-pct", unit: "%", fadeThreshold: 40 }, ["lqPct"])).toBeNull();
+    expect(linkChart({ metric: null, unit: null, fadeThreshold: null, source: null }, ["lqPct"])).toBeNull();
+  });
 });
+

@@ -6,8 +6,12 @@ import { PDFParse } from "pdf-parse";
 import { describe, expect, it } from "vitest";
 import { eventLabel } from "@/components/debrief/event-words";
 import { safetyTexts } from "@/components/ui/safety-texts";
+import { demoCrew } from "@/db/demo-crew";
+import { BENCH_WORDS, LEGACY_CLEAR_WORDS } from "@/lib/analysis/evidence";
+import type { BuildConfig } from "@/lib/analysis/types";
 import { formatDistance, formatSpan } from "@/lib/format/units";
 import { MAX_EVENT_ROWS, renderDebriefPdf } from "@/lib/reports/pdf-debrief";
+import { demoLogs } from "@/scripts/simulator/demo-runs";
 import { reportInput } from "./fixture";
 
 async function textOf(pdf: Buffer) {
@@ -71,4 +75,54 @@ describe("renderDebriefPdf", () => {
     expect(text).toContain("first line second line");
     expect(text).not.toMatch(/[\u0000-\u0008\u202E]/);
   });
+
+  it("lays out a bench failsafe test: link and failsafe only, no track, the bench caution first", async () => {
+    const input = await reportInput({ title: "Heron bench failsafe", log: { format: "csv", body: benchLog.body, fileName: benchLog.fileName, build: heronBuild, withPlan: false } });
+    const s = input.debrief.run.summary as { bench: boolean; verdict: { reasons: string[] } };
+    expect(s.bench).toBe(true);
+    const { text } = await textOf(await renderDebriefPdf(input));
+    expect(text).toContain(BENCH_WORDS.title);
+    expect(text).toContain(safetyTexts.bench);
+    // The bench caution comes before the verdict.
+    expect(text.indexOf(safetyTexts.bench)).toBeLessThan(text.indexOf("Act before the next run"));
+    for (const r of s.verdict.reasons) expect(text).toContain(r);
+    expect(text).toContain("Not assessed: GPS — the log has no usable GPS fix (a bench test, or indoors)");
+    expect(text).toContain("RSSI from channel 14 — the link metric judged (%)");
+    expect(text).toContain("commanded: 0.4 s after the loss (channel 8 at its failsafe value)");
+    expect(text).toContain("flown: not logged (no mode column, no track)");
+    for (const absent of ["Distance travelled", "Farthest from home", "Range estimate", "Track", "From home", "No rule fired"]) expect(text).not.toContain(absent);
+  });
+
+  it("says what a GPX track could not show", async () => {
+    const input = await reportInput({ title: "Sandpiper flats loop", log: { format: "gpx", body: gpxLog.body, fileName: gpxLog.fileName, build: undefined, withPlan: true } });
+    const { text } = await textOf(await renderDebriefPdf(input));
+    expect(text).toContain("Not assessed: link — the log has no link metric");
+    expect(text).toContain("Not assessed: failsafe —");
+    expect(text).toContain("Not assessed: battery — the log has no battery voltage");
+    expect(text).toContain("home: the first good fix (the log shows no arming)");
+    expect(text).toContain("Home: the first good fix (the log shows no arming)");
+    expect(text).toMatch(/Mission start at \d+:\d\d, at the first movement/);
+    expect(text).not.toContain("No rule fired");
+    expect(text).not.toContain("the link held");
+  });
+
+  it("draws an older summary's verdict without held or not-assessed lists", async () => {
+    const input = await reportInput();
+    const s = input.debrief.run.summary as Record<string, unknown>;
+    input.debrief.run.summary = { ...s, verdict: { level: "clear", reasons: [] } } as never;
+    const { text } = await textOf(await renderDebriefPdf(input));
+    expect(text).toContain(LEGACY_CLEAR_WORDS);
+  });
 });
+
+const logs = demoLogs();
+const benchLog = logs.find((l) => l.fileName === "heron-bench-failsafe.csv")!;
+const gpxLog = logs.find((l) => l.fileName.endsWith(".gpx"))!;
+const heron = demoCrew.builds.find((b) => b.name === "Heron")!;
+const heronBuild: BuildConfig = {
+  vehicleType: heron.vehicleType,
+  cells: heron.batteryCells,
+  failsafe: { action: heron.failsafeAction, expectedWithinS: heron.failsafeWithinS },
+  channels: heron.linkSheet.map((c) => ({ channel: c.channel, function: c.function, failsafeUs: c.failsafeUs, engageMinUs: c.engageMinUs, engageMaxUs: c.engageMaxUs })),
+};
+

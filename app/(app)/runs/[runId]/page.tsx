@@ -4,7 +4,8 @@ import { notFound } from "next/navigation";
 import { BenchTestPanel } from "@/components/builds/bench-test-panel";
 import { MoveRunForm } from "@/components/builds/move-run-form";
 import { DebriefBody } from "@/components/debrief/debrief-body";
-import { utcMinute, VerdictStrip, type VerdictLevel } from "@/components/debrief/verdict-strip";
+import { BenchNotice } from "@/components/debrief/bench-notice";
+import { utcMinute, VerdictStrip } from "@/components/debrief/verdict-strip";
 import { NotesSection } from "@/components/debrief/notes-section";
 import { RunCautions } from "@/components/debrief/run-cautions";
 import type { RunSummary } from "@/components/debrief/summary-figures";
@@ -61,7 +62,7 @@ const utc = utcMinute;
 export default async function DebriefPage({ params }: { params: Promise<{ runId: string }> }) {
   const d = await load((await params).runId);
   const { run, units } = d;
-  const summary = (run.summary ?? {}) as RunSummary & { verdict?: { level: VerdictLevel; reasons: string[] }; fieldsPresent?: string[] };
+  const summary = (run.summary ?? {}) as RunSummary & { fieldsPresent?: string[] };
   const ready = run.status === "ready";
   const verdict = ready ? (summary.verdict ?? null) : null;
   const mayNote = can(d.role as never, "writeNote");
@@ -94,6 +95,8 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
       </header>
 
       <RunStatusPoller runId={run.id} status={run.status} progress={run.progress} error={run.error} />
+
+      {ready && summary.bench === true && <BenchNotice linkLost={(summary.link?.lostCount ?? 0) > 0} />}
 
       {verdict && (
         <VerdictStrip verdict={verdict} signOff={d.signOff} notSignedHint={maySign ? "" : " — a lead signs debriefs off"}>

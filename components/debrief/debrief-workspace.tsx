@@ -4,7 +4,7 @@ import { useCallback, useEffect, useMemo, useState } from "react";
 import { ChartGroup, type ChartMarker } from "@/components/charts/chart-group";
 import { TrackMap, type MapHome, type MapMissionStart } from "@/components/map/track-map";
 import { formatClock, type Units } from "@/lib/format/units";
-import { chartPanels, panelConversions, type LinkInfo } from "./chart-panels";
+import { chartPanels, linkChart, panelConversions, type LinkInfo } from "./chart-panels";
 import { EventTimeline } from "./event-timeline";
 import { EventsTable } from "./events-table";
 import { eventLabel, eventTone, eventWindow, fadeLeadIn, type DebriefEvent } from "./event-words";
@@ -154,6 +154,7 @@ export function DebriefWorkspace(props: DebriefWorkspaceProps) {
               tileUrl={props.tileUrl}
               tileAttribution={props.tileAttribution}
               distanceUnit={units}
+              linkLabel={props.link.source?.kind === "rc-channel" ? linkChart(props.link, props.fieldsPresent)?.label : undefined}
             />
           </div>
         )}

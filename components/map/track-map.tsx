@@ -62,6 +62,8 @@ export interface TrackMapProps {
   tileAttribution?: string | null;
   /** For the scale bar and acceptance radii. */
   distanceUnit?: "metric" | "imperial";
+  /** The judged link metric's name when it is not a column of the log (e.g. "RSSI (channel 14)"). */
+  linkLabel?: string;
   /** Extra classes for the wrapper (layout only). */
   className?: string;
 }
@@ -179,6 +181,7 @@ export function TrackMap({
   tileUrl,
   tileAttribution = null,
   distanceUnit = "metric",
+  linkLabel,
   className = "",
 }: TrackMapProps) {
   const containerRef = useRef<HTMLDivElement>(null);
@@ -189,7 +192,9 @@ export function TrackMap({
     revalidateOnFocus: false,
   });
   const track = data && data.runId === runId ? data : undefined;
-  const scale: LinkScale | null = track?.metric ? linkScale(track.metric.field) : null;
+  const base: LinkScale | null = track?.metric ? linkScale(track.metric.field) : null;
+  // RSSI read from a link-sheet channel: the legend names the channel, as the chart does.
+  const scale: LinkScale | null = base && linkLabel && track?.metric?.field === "rssiPct" ? { ...base, label: linkLabel } : base;
 
   // Props that arrive as fresh objects each render are compared by content, so a parent's
   // re-render does not rebuild the pins (and take keyboard focus away from them).

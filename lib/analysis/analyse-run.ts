@@ -1,6 +1,6 @@
 import { quantileSorted } from "simple-statistics";
 import type { HomeInfo, NotAssessed } from "./evidence";
-import { analyseFailsafe } from "./failsafe";
+import { analyseFailsafe, NO_LOSS_WHY } from "./failsafe";
 import { classifyModeName } from "./failsafe-modes";
 import { analyseLink } from "./link";
 import { findMissionStart } from "./mission-start";
@@ -49,7 +49,7 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
   const rthSpans = failsafe.events.filter((e) => e.kind === "return-to-home").map((e) => ({ startS: e.startS, endS: e.endS }));
   const homeIndex = track.home?.index ?? -1;
   const mission = opts.plan && !bench ? findMissionStart(series, opts.build, { homeIndex, usableFix: track.usableFix, distanceFromHomeM: fromHome }) : null;
-  const start = mission && mission.index >= 0 ? { index: mission.index, lat: series.lat[mission.index], lon: series.lon[mission.index] } : undefined;
+  const start = mission && mission.index >= 0 && mission.position ? { index: mission.index, ...mission.position } : undefined;
   const route =
     opts.plan && !bench
       ? analyseRoute(series, opts.plan, th, {
@@ -68,6 +68,7 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     linkMetric: link.summary.metric,
     linkNote: link.summary.note,
     hasBuild: opts.build !== undefined,
+    benchLoss: bench && link.summary.lostCount > 0,
     failsafeResult: failsafe.outcome,
     failsafeWhy: failsafe.why,
     hasPlan: opts.plan !== undefined,
@@ -76,7 +77,8 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     cells: power.cells,
   });
   const verdict = judgeRun({
-    linkLost: count("link-lost"),
+    // On the bench the loss is the test (the transmitter switched off on purpose): not a fault of the run.
+    linkLost: bench ? 0 : count("link-lost"),
     linkFades: count("link-fade"),
     failsafeResult: failsafe.outcome,
     offRoute: count("off-route"),
@@ -198,11 +200,18 @@ function suspendedMask(series: RunSeries, engaged: Uint8Array | null, from: numb
   return out;
 }
 
+/** Why a bench run's link is not judged: the loss is the stimulus of the failsafe test. */
+export const BENCH_LOSS_WHY = "a bench test: the link was switched off on purpose to test the failsafe, so the loss is not a finding";
+/** Why the failsafe is not assessed when the log has no link metric (and no failsafe flag raised). */
+export const NO_METRIC_FAILSAFE_WHY = "the log has no link metric, so a link loss — and the failsafe it would trigger — cannot be seen";
+
 /** What the analysis knows about the evidence in the log, for {@link assessmentGaps}. */
 export interface EvidenceFacts {
   linkMetric: string | null;
   linkNote: string | null;
   hasBuild: boolean;
+  /** A bench run whose link was lost: the loss is the test, not a finding about the link. */
+  benchLoss: boolean;
   failsafeResult: string;
   failsafeWhy: string | null;
   hasPlan: boolean;
@@ -227,7 +236,12 @@ export function assessmentGaps(f: EvidenceFacts): NotAssessed[] {
           ? "the log has no link metric: no RSSI or LQ column, and the build's link sheet names no RSSI channel"
           : "the log has no link metric: no RSSI or LQ column, and no build with an RSSI channel on its link sheet"),
     });
-  if (f.failsafeResult === "not-assessed") gaps.push({ what: "failsafe", why: f.failsafeWhy ?? "not exercised" });
+  else if (f.benchLoss) gaps.push({ what: "link", why: BENCH_LOSS_WHY });
+  if (f.failsafeResult === "not-assessed") {
+    // Without a link metric "no loss" is not evidence that the link held.
+    const why = f.linkMetric === null && f.failsafeWhy === NO_LOSS_WHY ? NO_METRIC_FAILSAFE_WHY : (f.failsafeWhy ?? "not exercised");
+    gaps.push({ what: "failsafe", why });
+  }
   if (!f.hasPlan) gaps.push({ what: "route", why: "no route plan is attached to the run" });
   else if (f.bench) gaps.push({ what: "route", why: "the log has no usable GPS fix" });
   if (!f.hasVoltage) gaps.push({ what: "battery", why: "the log has no battery voltage" });

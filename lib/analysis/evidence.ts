@@ -63,7 +63,7 @@ export const LEGACY_CLEAR_WORDS =
 export const BENCH_WORDS = {
   title: "Bench run: analysed for link and failsafe only",
   body: "The log has no usable GPS fix, so there is no track: distance, speed, the map, the route and the range estimate are left out.",
-  loss: "On the bench a link loss is usually the test itself (the transmitter switched off): read it with the failsafe result.",
+  loss: "On the bench the link loss is the test itself (the transmitter switched off): it is not counted against the run; the failsafe result is what the test shows.",
 } as const;
 
 // ---- Home -----------------------------------------------------------------------------------
@@ -218,5 +218,5 @@ export interface MissionStart {
 export const MISSION_START_WORDS: Record<MissionStartSource, string> = {
   mode: "when a mission mode was engaged",
   channel: "when the link sheet's mission channel entered its engage range",
-  movement: "at the first movement after arming (no mission mode or channel in the log)",
+  movement: "at the vehicle's first movement from home (no mission mode or channel in the log)",
 };

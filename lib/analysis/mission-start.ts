@@ -35,6 +35,8 @@ export function isMissionModeName(name: string): boolean {
 export interface MissionStartResult {
   /** Sample where following began (a usable fix); -1 without a usable fix after home. */
   index: number;
+  /** Where the first leg starts: the fix at `index`, or home for "movement" (where the vehicle stood). */
+  position: { lat: number; lon: number } | null;
   source: MissionStartSource | null;
   /**
    * Per sample: 1 while the mission is engaged, 0 while it is not — only when a mission mode or
@@ -49,8 +51,8 @@ const lettersOnly = (s: string) => s.toLowerCase().replace(/[^a-z]/g, "");
  * Finds the mission's start at or after home: the first sample in a mission mode
  * ({@link isMissionModeName}, held until the next mode row); else the first sample where the link
  * sheet's "mission" channel lies inside its engage range (engageMinUs–engageMaxUs, inclusive);
- * else the first movement — the last usable fix within {@link MOVE_START_M} of home before the
- * first one beyond it (home itself when the vehicle never left). The start is moved to the next usable fix when its own sample has none.
+ * else the first movement — the last usable fix within {@link MOVE_START_M} of home before the first
+ * one beyond it (home itself when the vehicle never left), with the first leg starting at home. The start is moved to the next usable fix when its own sample has none.
  *
  * Cost: O(n). Pure.
  *
@@ -63,13 +65,14 @@ const lettersOnly = (s: string) => s.toLowerCase().replace(/[^a-z]/g, "");
  * findMissionStart(series, undefined, track); // => { index: 120, source: "mode", engaged: Uint8Array […] }
  */
 export function findMissionStart(
-  series: Pick<RunSeries, "n" | "tS" | "modeIndex" | "modeNames" | "rc">,
+  series: Pick<RunSeries, "n" | "tS" | "lat" | "lon" | "modeIndex" | "modeNames" | "rc">,
   build: BuildConfig | undefined,
   track: { homeIndex: number; usableFix: ArrayLike<number>; distanceFromHomeM: ArrayLike<number> },
 ): MissionStartResult {
   const { n } = series;
   const { homeIndex, usableFix, distanceFromHomeM } = track;
-  if (homeIndex < 0) return { index: -1, source: null, engaged: null };
+  if (homeIndex < 0) return { index: -1, position: null, source: null, engaged: null };
+  const at = (i: number) => (i >= 0 ? { lat: series.lat[i], lon: series.lon[i] } : null);
   const nextFix = (i: number) => {
     for (let k = Math.max(i, homeIndex); k < n; k++) if (usableFix[k] === 1) return k;
     return -1;
@@ -87,7 +90,7 @@ export function findMissionStart(
       engaged[i] = Number.isFinite(held) && missionModes[held] ? 1 : 0;
     }
     const i = firstEngaged(engaged);
-    if (i >= 0) return { index: nextFix(i), source: "mode", engaged };
+    if (i >= 0) return { index: nextFix(i), position: at(nextFix(i)), source: "mode", engaged };
   }
 
   const ch = build?.channels?.find((c) => lettersOnly(c.function) === "mission" && c.engageMinUs !== undefined && c.engageMaxUs !== undefined);
@@ -101,9 +104,11 @@ export function findMissionStart(
       engaged[i] = held >= lo && held <= hi ? 1 : 0;
     }
     const i = firstEngaged(engaged);
-    if (i >= 0) return { index: nextFix(i), source: "channel", engaged };
+    if (i >= 0) return { index: nextFix(i), position: at(nextFix(i)), source: "channel", engaged };
   }
 
+  // It left when it last stood inside the circle; it stood at home (GPS scatter aside), so the
+  // first leg runs from home, not from the circle's edge.
   let lastInside = homeIndex;
   let left = false;
   for (let i = homeIndex; i < n && !left; i++) {
@@ -111,5 +116,5 @@ export function findMissionStart(
     if (distanceFromHomeM[i] > MOVE_START_M) left = true;
     else lastInside = i;
   }
-  return { index: left ? lastInside : homeIndex, source: "movement", engaged: null };
+  return { index: left ? lastInside : homeIndex, position: at(homeIndex), source: "movement", engaged: null };
 }

@@ -38,6 +38,13 @@ export interface RouteStart {
 
 /** The name the first leg starts from when it starts at the mission start. */
 export const START_NAME = "Start";
+
+/**
+ * A mission that starts this close to waypoint 1's circle (m beyond its radius) starts *at* it: a
+ * vehicle standing there is at the waypoint give or take GPS scatter (0.5–3 m, DESIGN.md §10), and
+ * plans that list home as waypoint 1 would otherwise miss it on the first metre. Our choice.
+ */
+export const START_AT_WAYPOINT_M = 3;
 interface Inside { j: number; first: number; last: number; closestD: number; closestI: number }
 
 const unit = (v: XY): XY => {
@@ -48,7 +55,8 @@ const unit = (v: XY): XY => {
 /**
  * Follows the fixes along the plan. With a `start` (the mission start, DESIGN.md §10), following
  * begins at its sample and the first leg runs from its position to waypoint 0, which is reached or
- * missed on that leg like any other; without one, the route starts when waypoint 0 is reached or
+ * missed on that leg like any other (and reached at the start when the start lies within its radius
+ * + {@link START_AT_WAYPOINT_M}); without one, the route starts when waypoint 0 is reached or
  * passed. Leg k − 1 is active while waypoint k is the current one (legs counted from the start). Waypoint k is *reached* at the first
  * fix within `radiusM[k]` (the event lasts while the run stays inside; peak = closest approach) and
  * *missed* when the run passes it without entering (peak = closest approach while it was current):
@@ -128,6 +136,8 @@ export function followWaypoints(
     return ct;
   };
   const from = start ? start.index : 0;
+  // The start's own distance to the plan's first waypoint (it may lie off the fix at its sample).
+  const startToFirst = start ? Math.hypot(...planes[first].toXY(start.lat, start.lon)) : Infinity;
   for (let i = from; i < n; i++) {
     if (usable[i] !== 1) continue;
     const still: Inside[] = [];
@@ -150,7 +160,7 @@ export function followWaypoints(
       const pk = planes[k].toXY(lat[i], lon[i]);
       const d = Math.sqrt(pk[0] * pk[0] + pk[1] * pk[1]);
       if (d < closestD) (closestD = d), (closestI = i);
-      if (d <= radii[k]) {
+      if (d <= radii[k] || (i === from && k === first && startToFirst <= radii[k] + START_AT_WAYPOINT_M)) {
         inside.push({ j: k, first: i, last: i, closestD: d, closestI: i });
         reached.push(wps[k].name);
       } else {

@@ -33,6 +33,12 @@ const benchBuild: BuildConfig = {
 };
 
 describe("analyseRun on a bench failsafe test", () => {
+  it("still acts on a bench test whose failsafe came late", () => {
+    const late = { ...benchBuild, failsafe: { action: "return-to-home" as const, expectedWithinS: 0.2 } };
+    const v = analyseRun(bench(), { build: late }).summary.verdict;
+    expect(v).toMatchObject({ level: "act", reasons: ["Failsafe acted later than planned"] });
+  });
+
   it("reads the link from channel 14, the command from channel 8, and does not call a missing mode column a wrong action", () => {
     const r = analyseRun(bench(), { build: benchBuild });
     const s = r.summary;
@@ -46,9 +52,11 @@ describe("analyseRun on a bench failsafe test", () => {
       commanded: { by: "rc-channel", channel: 8, latencyS: expect.closeTo(0.4, 9) },
       flown: { state: "not-logged" },
     });
-    expect(s.verdict.level).toBe("act"); // the link was lost: that is the test
-    expect(s.verdict.reasons).toEqual(["Link lost once"]);
-    expect(s.verdict.notAssessed.map((g) => g.what)).toEqual(["route", "gps"]);
+    // The loss is the test (the transmitter switched off on purpose), not a fault of the run.
+    expect(s.verdict.level).toBe("clear");
+    expect(s.verdict.reasons).toEqual([]);
+    expect(s.verdict.notAssessed.map((g) => g.what)).toEqual(["link", "route", "gps"]);
+    expect(s.verdict.notAssessed[0].why).toMatch(/bench test/);
     expect(s.verdict.held).toEqual(["failsafe", "battery"]);
     expect(s.route).toBeNull();
     expect(r.perSample.rssiRcPct?.[0]).toBe(98);
@@ -81,13 +89,14 @@ describe("analyseRun without link data (a GPX-like track)", () => {
     expect(v.reasons).toEqual([]);
     expect(v.notAssessed.map((g) => g.what)).toEqual(["link", "failsafe", "route", "battery"]);
     expect(v.notAssessed[0].why).toMatch(/no link metric/);
-    expect(v.notAssessed[1].why).toMatch(/no link loss/);
+    // Without a link metric, "no loss" is not evidence: the failsafe's reason says the loss cannot be seen.
+    expect(v.notAssessed[1].why).toMatch(/no link metric, so a link loss/);
     expect(v.held).toEqual(["gps"]);
   });
 });
 
 describe("assessmentGaps", () => {
-  const base = { linkMetric: "lq", linkNote: null, hasBuild: true, failsafeResult: "pass", failsafeWhy: null, hasPlan: true, bench: false, hasVoltage: true, cells: 4 };
+  const base = { linkMetric: "lq", linkNote: null, hasBuild: true, benchLoss: false, failsafeResult: "pass", failsafeWhy: null, hasPlan: true, bench: false, hasVoltage: true, cells: 4 };
   it("lists nothing when everything could be assessed", () => {
     expect(assessmentGaps(base)).toEqual([]);
   });
@@ -98,5 +107,6 @@ describe("assessmentGaps", () => {
     expect(assessmentGaps({ ...base, cells: null })).toEqual([{ what: "battery", why: "the cell count is unknown: set it on the build" }]);
     expect(assessmentGaps({ ...base, bench: true }).map((g) => g.what)).toEqual(["route", "gps"]);
     expect(assessmentGaps({ ...base, failsafeResult: "not-assessed", failsafeWhy: "x" })).toEqual([{ what: "failsafe", why: "x" }]);
+    expect(assessmentGaps({ ...base, bench: true, benchLoss: true }).map((g) => g.what)).toEqual(["link", "route", "gps"]);
   });
 });

@@ -58,19 +58,21 @@ describe("findMissionStart", () => {
     expect(startOf(s, noRange).m.source).toBe("movement");
   });
 
-  it("falls back to the last fix within 5 m of home before the vehicle first left it", () => {
-    const { t, m } = startOf(mission());
+  it("falls back to the last fix within 5 m of home before the vehicle first left it, starting the leg at home", () => {
+    const s = mission();
+    const { t, m } = startOf(s);
     expect(m.source).toBe("movement");
     expect(m.engaged).toBeNull();
     expect(t.distanceFromHomeM[m.index]).toBeLessThanOrEqual(MOVE_START_M);
     expect(t.distanceFromHomeM[m.index + 1]).toBeGreaterThan(MOVE_START_M);
+    expect(m.position).toEqual({ lat: s.lat[t.home!.index], lon: s.lon[t.home!.index] });
   });
 
   it("is home itself for a vehicle that never moved, and nothing without a fix", () => {
     const still = makeSeries(30, { ...toLatLon(Array(30).fill(0), Array(30).fill(0)), armed: () => 1 });
     const t = analyseTrack(still, th);
     expect(findMissionStart(still, undefined, { homeIndex: t.home!.index, usableFix: t.usableFix, distanceFromHomeM: t.distanceFromHomeM })).toMatchObject({ index: 0, source: "movement" });
-    expect(findMissionStart(still, undefined, { homeIndex: -1, usableFix: t.usableFix, distanceFromHomeM: t.distanceFromHomeM })).toEqual({ index: -1, source: null, engaged: null });
+    expect(findMissionStart(still, undefined, { homeIndex: -1, usableFix: t.usableFix, distanceFromHomeM: t.distanceFromHomeM })).toEqual({ index: -1, position: null, source: null, engaged: null });
   });
 });
 
@@ -99,6 +101,22 @@ describe("analyseRoute from the mission start", () => {
     const r = analyseRoute(s, P, th, { usableFix: t.usableFix, home: t.home });
     expect(r.missed).toContain("P1");
     expect(r.xteM[0]).toBeCloseTo(60, 0); // home is 60 m off the P1→P2 line
+  });
+
+  it("takes waypoint 1 as reached at the start when the mission starts within its radius + 3 m (GPS scatter)", () => {
+    // A plan listing home as waypoint 1; the vehicle stands 4 m from it (radius 2 m) and drives off east.
+    const H = plan([["Home", 0, 0], ["East", 60, 0]]);
+    const p = walk([[0, 4], [10, 0], [65, 0]], 3, 10);
+    const s = makeSeries(p.e.length, { ...toLatLon(p.e, p.n), armed: () => 1 });
+    const t = analyseTrack(s, th);
+    const at = (snapFrom: [number, number]) => ({ index: 0, ...toLatLon([snapFrom[0]], [snapFrom[1]]) });
+    const one = (o: { index: number; lat: number[]; lon: number[] }) => ({ index: o.index, lat: o.lat[0], lon: o.lon[0] });
+    const r = analyseRoute(s, H, th, { usableFix: t.usableFix, home: t.home, start: one(at([0, 4])) });
+    expect(r.reached).toEqual(["Home", "East"]);
+    expect(r.missed).toEqual([]);
+    // 5.5 m away (beyond 2 + 3 m) it is a real first leg, and passing abeam of Home misses it.
+    const far = analyseRoute(s, H, th, { usableFix: t.usableFix, home: t.home, start: one(at([-5.5, 0])) });
+    expect(far.missed).toEqual(["Home"]);
   });
 
   it("misses P1 on the first leg when passed abeam outside its circle", () => {

@@ -135,7 +135,7 @@ describe("summaryFigures", () => {
   it("says which rule placed home and where the mission started", () => {
     const figs = summaryFigures(gpx, "metric");
     expect(fig(figs, "Farthest from home")!.sub).toBe("home: the first good fix (the log shows no arming)");
-    expect(fig(figs, "Cross-track error")!.detail).toEqual(["measured from the mission start at 0:04, at the first movement after arming (no mission mode or channel in the log)"]);
+    expect(fig(figs, "Cross-track error")!.detail).toEqual(["measured from the mission start at 0:04, at the vehicle's first movement from home (no mission mode or channel in the log)"]);
     const armed = summaryFigures({ ...gpx, home: { ...gpx.home!, source: "arming" } }, "metric");
     expect(fig(armed, "Farthest from home")!.sub).toBe("home: where the vehicle was armed (first good fix after arming)");
   });

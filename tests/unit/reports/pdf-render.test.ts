@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { eventLabel } from "@/components/debrief/event-words";
 import { safetyTexts } from "@/components/ui/safety-texts";
 import { demoCrew } from "@/db/demo-crew";
-import { BENCH_WORDS, LEGACY_CLEAR_WORDS } from "@/lib/analysis/evidence";
+import { BENCH_WORDS, CLEAR_FOR_ASSESSED_WORDS, LEGACY_CLEAR_WORDS } from "@/lib/analysis/evidence";
 import type { BuildConfig } from "@/lib/analysis/types";
 import { formatDistance, formatSpan } from "@/lib/format/units";
 import { MAX_EVENT_ROWS, renderDebriefPdf } from "@/lib/reports/pdf-debrief";
@@ -83,8 +83,10 @@ describe("renderDebriefPdf", () => {
     const { text } = await textOf(await renderDebriefPdf(input));
     expect(text).toContain(BENCH_WORDS.title);
     expect(text).toContain(safetyTexts.bench);
-    // The bench caution comes before the verdict.
-    expect(text.indexOf(safetyTexts.bench)).toBeLessThan(text.indexOf("Act before the next run"));
+    // The bench caution comes before the verdict; the loss is the test, so a failsafe that passed leaves it clear.
+    expect(text.indexOf(CLEAR_FOR_ASSESSED_WORDS)).toBeGreaterThan(-1);
+    expect(text.indexOf(safetyTexts.bench)).toBeLessThan(text.indexOf(CLEAR_FOR_ASSESSED_WORDS));
+    expect(text).toContain("Not assessed: link — a bench test");
     for (const r of s.verdict.reasons) expect(text).toContain(r);
     expect(text).toContain("Not assessed: GPS — the log has no usable GPS fix (a bench test, or indoors)");
     expect(text).toContain("RSSI from channel 14 — the link metric judged (%)");
@@ -101,7 +103,7 @@ describe("renderDebriefPdf", () => {
     expect(text).toContain("Not assessed: battery — the log has no battery voltage");
     expect(text).toContain("home: the first good fix (the log shows no arming)");
     expect(text).toContain("Home: the first good fix (the log shows no arming)");
-    expect(text).toMatch(/Mission start at \d+:\d\d, at the first movement/);
+    expect(text).toMatch(/Mission start at \d+:\d\d, at the vehicle's first movement/);
     expect(text).not.toContain("No rule fired");
     expect(text).not.toContain("the link held");
   });

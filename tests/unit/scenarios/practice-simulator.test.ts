@@ -27,7 +27,8 @@ const sha256 = (s: string) => createHash("sha256").update(s).digest("hex");
 describe("practice simulator", () => {
   it("leaves the demo logs unchanged", () => {
     // Pinned when the practice scenarios were added; the demo crew's seeded runs are built from these.
-    expect(demoLogs().map((l) => [l.fileName, sha256(l.body)])).toEqual([
+    // (The demo bench test after them comes from its own generator, scripts/simulator/bench-test.ts.)
+    expect(demoLogs().slice(0, 3).map((l) => [l.fileName, sha256(l.body)])).toEqual([
       ["mudlark-flats-loop.csv", "bd8d6b2bd53f5c10f4644f98578e108c240aaf3d3b33f4a786ce7026e5c71810"],
       ["sandpiper-flats-loop.gpx", "d4667acc7aaab8b2de26d0b3d96c610f71599e51757e494798b9676b151fae95"],
       ["heron-gps.nmea", "e8a4c9534eb6d18c34617954ae052a7428cf218c45bddf5208b5375852044b24"],

@@ -96,7 +96,7 @@ describe("debriefs that say what a log cannot show", () => {
     await expect.poll(() => page.getByTestId("track-map").getAttribute("data-track-points").then(Number), { timeout: 30_000 }).toBeGreaterThan(10);
     const legend = (await page.getByRole("group", { name: "Map legend" }).textContent()) ?? "";
     expect(legend).toContain("Home: the first good fix (the log shows no arming)");
-    expect(legend).toMatch(/Mission start at \d+:\d\d, at the first movement/);
+    expect(legend).toMatch(/Mission start at \d+:\d\d, at the vehicle's first movement/);
     expect(await page.locator(".sortie-mission-start").count()).toBe(1);
     expect(await page.locator(".sortie-home").getAttribute("title")).toBe("Home: the first good fix (the log shows no arming)");
     await page.screenshot({ path: screenshotPath("debrief-gpx-desktop"), fullPage: true });

@@ -129,7 +129,8 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
     },
     failsafe: {
       result: failsafe.outcome,
-      why: failsafe.why,
+      // The figure and the verdict give the same reason.
+      why: notAssessed.find((g) => g.what === "failsafe")?.why ?? failsafe.why,
       plan: failsafe.plan,
       commanded: failsafe.decisive?.commanded ?? null,
       flown: failsafe.decisive?.flown ?? null,

@@ -91,6 +91,7 @@ describe("analyseRun without link data (a GPX-like track)", () => {
     expect(v.notAssessed[0].why).toMatch(/no link metric/);
     // Without a link metric, "no loss" is not evidence: the failsafe's reason says the loss cannot be seen.
     expect(v.notAssessed[1].why).toMatch(/no link metric, so a link loss/);
+    expect(analyseRun(s).summary.failsafe.why).toBe(v.notAssessed[1].why); // the figure says the same
     expect(v.held).toEqual(["gps"]);
   });
 });

@@ -31,16 +31,7 @@ export function toGpx(samples: SimSample[], start: Date, name: string): string {
         `<fix>3d</fix><sat>${s.sats}</sat><hdop>${s.hdop.toFixed(2)}</hdop></trkpt>`,
     )
     .join("\n");
-  return `<?xml version="1.0" encoding="UTF-8"?>
-<gpx version="1.1" creator="Sortie demo simulator" xmlns="http://www.topografix.com/GPX/1/1">
-  <metadata><name>${name}</name><time>${start.toISOString()}</time></metadata>
-  <trk><name>${name}</name>
-    <trkseg>
-${pts}
-    </trkseg>
-  </trk>
-</gpx>
-`;
+  return gpxDocument("Sortie demo simulator", name, start, pts);
 }
 
 /** NMEA 0183 checksum: XOR of every character between "$" and "*" (two hex digits). */
@@ -119,8 +110,13 @@ export function toTrackGpx(points: GpxTrackPoint[], start: Date, name: string): 
       return `      <trkpt lat="${p.lat.toFixed(7)}" lon="${p.lon.toFixed(7)}">${extra}</trkpt>`;
     })
     .join("\n");
+  return gpxDocument("Sortie practice simulator", name, start, pts);
+}
+
+/** A GPX 1.1 document holding one track of one segment (`pts`: its <trkpt> lines). */
+function gpxDocument(creator: string, name: string, start: Date, pts: string): string {
   return `<?xml version="1.0" encoding="UTF-8"?>
-<gpx version="1.1" creator="Sortie practice simulator" xmlns="http://www.topografix.com/GPX/1/1">
+<gpx version="1.1" creator="${creator}" xmlns="http://www.topografix.com/GPX/1/1">
   <metadata><name>${name}</name><time>${start.toISOString()}</time></metadata>
   <trk><name>${name}</name>
     <trkseg>

@@ -8,7 +8,8 @@ import type { Thresholds, VehicleType } from "./types";
  * The -100 dBm fallback sensitivity and the jump speeds are common practice, not from a source.
  * Our own choices, against the 0.5–3 m GPS scatter and tens of mV of loaded-voltage jitter that
  * DESIGN.md §10 describes: an off-route ends only 0.5 m (ground) / 2 m (air) back inside the
- * corridor, and loaded voltage is judged on a 1 s centred mean.
+ * corridor, and loaded voltage is judged on a 1 s centred mean. Recordings 30 min apart are
+ * separate runs (DESIGN.md §10 "A file holding several separate runs is several runs").
  */
 export function defaultThresholds(vehicle: VehicleType): Thresholds {
   const air = vehicle === "multirotor" || vehicle === "fixed-wing";
@@ -33,6 +34,7 @@ export function defaultThresholds(vehicle: VehicleType): Thresholds {
     lowCellV: 3.5,
     lowVoltageMinS: 2,
     lowVoltageWindowS: 1,
+    runSplitGapS: 1800,
   };
 }
 

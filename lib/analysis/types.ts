@@ -93,6 +93,8 @@ export interface Thresholds {
   lowVoltageMinS: number;
   /** Loaded voltage is judged on its mean over a centred window this long (s), so jitter does not fire. */
   lowVoltageWindowS: number;
+  /** Recordings (GPX tracks, armed periods) further apart than this (s) are separate runs of one upload. */
+  runSplitGapS: number;
 }
 
 export interface AnalysisEvent {

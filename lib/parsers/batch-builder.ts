@@ -28,6 +28,7 @@ export class BatchBuilder {
       columns,
       rc: this.withRc ? new Uint16Array(this.size * RC_CHANNELS) : null,
       segmentStart: new Uint8Array(this.size),
+      trackStart: new Uint8Array(this.size),
       sourceLine: new Uint32Array(this.size),
     };
   }
@@ -37,10 +38,12 @@ export class BatchBuilder {
     return this.batch.length >= this.size;
   }
 
-  begin(sourceLine: number, segmentStart = false): void {
+  /** `trackStart` marks a new recording (GPX <trk>) and implies a segment start. */
+  begin(sourceLine: number, segmentStart = false, trackStart = false): void {
     this.i = this.batch.length;
     this.batch.sourceLine[this.i] = sourceLine;
-    this.batch.segmentStart[this.i] = segmentStart ? 1 : 0;
+    this.batch.segmentStart[this.i] = segmentStart || trackStart ? 1 : 0;
+    this.batch.trackStart[this.i] = trackStart ? 1 : 0;
   }
 
   set(field: SampleField, value: number): void {
@@ -103,6 +106,7 @@ export class BatchBuilder {
       columns,
       rc: b.rc ? b.rc.subarray(0, n * RC_CHANNELS) : null,
       segmentStart: b.segmentStart.subarray(0, n),
+      trackStart: b.trackStart.subarray(0, n),
       sourceLine: b.sourceLine.subarray(0, n),
     };
   }

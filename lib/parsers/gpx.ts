@@ -28,7 +28,8 @@ export interface GpxParseOptions {
  * Parses a GPX 1.0 or 1.1 track into the normalised sample stream, one sample per <trkpt>.
  *
  * Every <trkseg> (and so every <trk>) starts a new segment: its first sample after the first one
- * of the log gets `segmentStart = 1`, a reception gap that is never bridged. `tS` is seconds since
+ * of the log gets `segmentStart = 1`, a reception gap that is never bridged; the first sample of
+ * every <trk> after the first also gets `trackStart = 1` (a new recording). `tS` is seconds since
  * the first time in the log (fractional seconds and zone offsets kept). A point without <time>
  * keeps its position and takes the previous sample's `tS` (never interpolated; warning
  * "missing-time"); when no point has a time, `tS` is the sample index in seconds ("no-times").
@@ -55,7 +56,7 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
   const { root, ns } = readGpxDocument(text, warnings);
   const segments = pointSegments(root, ns, opts.fallbackToRoute ?? false);
   const timeOf = (p: Element) => parseGpxTime(childText(p, "time", ns));
-  const hasTimes = segments.some((seg) => seg.some((p) => pointCoordinates(p) !== null && !Number.isNaN(timeOf(p))));
+  const hasTimes = segments.some((seg) => seg.points.some((p) => pointCoordinates(p) !== null && !Number.isNaN(timeOf(p))));
 
   const b = new BatchBuilder(false, opts.batchSize ?? DEFAULT_BATCH_SIZE);
   let pointNo = 0;
@@ -65,7 +66,8 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
   let prevTs = 0;
   for (const seg of segments) {
     let startsSegment = count > 0;
-    for (const p of seg) {
+    let startsTrack = count > 0 && seg.firstOfTrack;
+    for (const p of seg.points) {
       pointNo++;
       const c = pointCoordinates(p);
       if (!c) {
@@ -89,8 +91,8 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
         tS = prevTs = (ms - t0) / 1000;
       }
       if (b.full) await opts.onBatch(b.take()!);
-      b.begin(pointNo, startsSegment);
-      startsSegment = false;
+      b.begin(pointNo, startsSegment, startsTrack);
+      startsSegment = startsTrack = false;
       b.set("tS", tS);
       b.set("lat", c.lat);
       b.set("lon", c.lon);
@@ -116,20 +118,32 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
   };
 }
 
+/** One point list to read: a <trkseg> (or a route / the waypoint list), and whether it opens a <trk>. */
+interface PointSegment {
+  points: Element[];
+  /** True for the first non-empty segment of each <trk>: a new recording starts there. */
+  firstOfTrack: boolean;
+}
+
 /** The point lists to read, one per segment: every <trkseg>, or the route/waypoint fallback. */
-function pointSegments(root: Element, ns: string | null, fallbackToRoute: boolean): Element[][] {
-  const segments: Element[][] = [];
+function pointSegments(root: Element, ns: string | null, fallbackToRoute: boolean): PointSegment[] {
+  const segments: PointSegment[] = [];
   for (const trk of childElements(root, "trk", ns)) {
-    for (const seg of childElements(trk, "trkseg", ns)) segments.push(childElements(seg, "trkpt", ns));
+    let first = true;
+    for (const seg of childElements(trk, "trkseg", ns)) {
+      const points = childElements(seg, "trkpt", ns);
+      segments.push({ points, firstOfTrack: first && points.length > 0 });
+      if (points.length > 0) first = false;
+    }
   }
-  if (segments.some((s) => s.length > 0)) return segments;
+  if (segments.some((s) => s.points.length > 0)) return segments;
 
   const routes = childElements(root, "rte", ns)
     .map((rte) => childElements(rte, "rtept", ns))
     .filter((pts) => pts.length > 0);
   const waypoints = childElements(root, "wpt", ns);
-  if (fallbackToRoute && routes.length > 0) return routes;
-  if (fallbackToRoute && waypoints.length > 0) return [waypoints];
+  if (fallbackToRoute && routes.length > 0) return routes.map((points) => ({ points, firstOfTrack: false }));
+  if (fallbackToRoute && waypoints.length > 0) return [{ points: waypoints, firstOfTrack: false }];
   if (routes.length > 0 || waypoints.length > 0) {
     throw new ParseError(
       "The GPX file has no track points; a GPX route or waypoint list can be added as a route plan instead",

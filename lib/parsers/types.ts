@@ -38,6 +38,11 @@ export interface SampleBatch {
   rc: Uint16Array | null;
   /** 1 where a new track segment starts at this sample (a reception gap that must not be bridged). */
   segmentStart: Uint8Array;
+  /**
+   * 1 where a new recording starts (a GPX <trk> after the first): a place where one upload may
+   * hold several runs (lib/parsers/run-splitter.ts). Always a segment start too.
+   */
+  trackStart: Uint8Array;
   /** 1-based source line (CSV/NMEA) or point number (GPX) of each sample, for messages. */
   sourceLine: Uint32Array;
 }

@@ -26,6 +26,7 @@ export const thresholdsSchema = z
     lowCellV: z.number().min(2).max(4.5),
     lowVoltageMinS: seconds,
     lowVoltageWindowS: z.number().min(0).max(30),
+    runSplitGapS: z.number().min(60).max(30 * 86_400),
   })
   .partial()
   .strict();

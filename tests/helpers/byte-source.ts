@@ -25,6 +25,7 @@ export interface CollectedSamples {
   length: number;
   columns: Record<SampleField, number[]>;
   segmentStart: number[];
+  trackStart: number[];
   sourceLine: number[];
   rc: number[][] | null;
 }
@@ -36,12 +37,13 @@ export interface CollectedSamples {
 export function collectSamples(): { onBatch: (b: SampleBatch) => void; samples: CollectedSamples } {
   const columns = {} as Record<SampleField, number[]>;
   for (const f of sampleFields) columns[f] = [];
-  const samples: CollectedSamples = { batches: 0, length: 0, columns, segmentStart: [], sourceLine: [], rc: null };
+  const samples: CollectedSamples = { batches: 0, length: 0, columns, segmentStart: [], trackStart: [], sourceLine: [], rc: null };
   const onBatch = (b: SampleBatch) => {
     samples.batches++;
     samples.length += b.length;
     for (const f of sampleFields) samples.columns[f].push(...Array.from(b.columns[f].subarray(0, b.length)));
     samples.segmentStart.push(...Array.from(b.segmentStart.subarray(0, b.length)));
+    samples.trackStart.push(...Array.from(b.trackStart.subarray(0, b.length)));
     samples.sourceLine.push(...Array.from(b.sourceLine.subarray(0, b.length)));
     if (b.rc) {
       samples.rc ??= [];

@@ -209,6 +209,15 @@ describe("parseGpx", () => {
     const trk = (lon: number) => `<trk><trkseg><trkpt lat="1" lon="${lon}"><time>2020-01-01T00:00:0${lon}Z</time></trkpt><trkpt lat="1" lon="${lon + 1}"/></trkseg></trk>`;
     const { samples } = await run(`<gpx>${trk(1)}${trk(5)}</gpx>`);
     expect(samples.segmentStart).toEqual([0, 0, 1, 0]);
+    expect(samples.trackStart).toEqual([0, 0, 1, 0]);
+  });
+
+  it("marks a new recording only at a <trk>, not at each <trkseg>, and skips empty segments", async () => {
+    const pt = (lon: number) => `<trkpt lat="1" lon="${lon}"/>`;
+    const xml = `<gpx><trk><trkseg>${pt(1)}</trkseg><trkseg>${pt(2)}</trkseg></trk><trk><trkseg></trkseg><trkseg>${pt(3)}${pt(4)}</trkseg></trk></gpx>`;
+    const { samples } = await run(xml);
+    expect(samples.segmentStart).toEqual([0, 1, 1, 0]);
+    expect(samples.trackStart).toEqual([0, 0, 1, 0]);
   });
 
   it("reads a time without a zone as UTC, not as the machine's local time", async () => {

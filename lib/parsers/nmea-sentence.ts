@@ -3,15 +3,24 @@ import { parseNmeaSentence } from "nmea-simple";
 /** One nautical mile is 1852 m exactly, so 1 knot = 1852/3600 m/s ≈ 0.514444 m/s. */
 export const KNOT_MPS = 1852 / 3600;
 
-/** What one sentence contributes; NaN for a field the sentence leaves empty. */
+/** What one sentence contributes; NaN for a field the sentence leaves empty. `talker` is "GP", "GN", "GL", … */
 export type NmeaSentence =
-  | { kind: "gga"; tod: number; lat: number; lon: number; quality: number; sats: number; hdop: number; altM: number }
-  | { kind: "rmc"; tod: number; dateMs: number | null; valid: boolean; lat: number; lon: number; speedMps: number; headingDeg: number }
+  | { kind: "gga"; talker: string; tod: number; lat: number; lon: number; quality: number; sats: number; hdop: number; altM: number }
+  | { kind: "rmc"; talker: string; tod: number; dateMs: number | null; valid: boolean; lat: number; lon: number; speedMps: number; headingDeg: number }
   | { kind: "vtg"; speedMps: number; headingDeg: number }
-  /** Decoded by nmea-simple but not used here (GSA, GSV, GLL, ZDA, …). */
+  /** A well-formed sentence with a valid checksum that the sample stream does not use (GSA, GSV, GLL, ZDA, TXT, $P…). */
   | { kind: "other" }
+  /** No `*hh` at the end: cut short, or run into the next sentence or into junk. */
+  | { kind: "truncated" }
+  /** `*hh` present but not the XOR of the sentence. */
   | { kind: "bad-checksum" }
+  /** Valid checksum, but a malformed address or a GGA/RMC/VTG whose fields cannot be read. */
   | { kind: "unparsed" };
+
+/** Talker + sentence id (`GPGGA`, `GNRMC`, `AIVDM`) or a proprietary `P` + maker code (`PUBX`, `PMTK001`). */
+const ADDRESS = /^[$!](?:([A-Z][A-Z0-9])([A-Z]{3})|P[A-Z0-9]{3,})(?=,|\*)/;
+/** The sentences the sample stream is built from; everything else well-formed is ignored. */
+const USED = new Set(["GGA", "RMC", "VTG"]);
 
 const WITH_CHECKSUM = /^[$!]([^*]*)\*([0-9A-Fa-f]{2})$/;
 
@@ -44,17 +53,22 @@ export function nmeaChecksumOk(sentence: string): boolean {
  * - VTG: course (° true) and speed (km/h → m/s, else knots → m/s); FAA mode N (not valid) leaves both empty.
  *
  * @param sentence one sentence without line end or leading junk, starting at `$` or `!`
- * @returns the decoded contribution, or "bad-checksum" / "unparsed" / "other"
+ * @returns the decoded contribution, or "truncated" / "bad-checksum" / "unparsed" (damaged) / "other" (not used)
  * @example
  * decodeNmeaSentence("$GPGGA,123519,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,*47").kind; // => "gga"
  */
 export function decodeNmeaSentence(sentence: string): NmeaSentence {
+  if (!/\*[0-9A-Fa-f]{2}$/.test(sentence)) return { kind: "truncated" };
   if (!nmeaChecksumOk(sentence)) return { kind: "bad-checksum" };
+  const address = ADDRESS.exec(sentence);
+  if (!address) return { kind: "unparsed" }; // e.g. "$GPN,…" left over from a damaged line
+  if (!address[2] || !USED.has(address[2])) return { kind: "other" };
+  const talker = address[1];
   let packet;
   try {
     packet = parseNmeaSentence(sentence);
   } catch {
-    return { kind: "unparsed" }; // unknown sentence id, or fields the library cannot read
+    return { kind: "unparsed" }; // fields the library cannot read
   }
   const f = sentence.slice(0, sentence.indexOf("*")).split(",");
   const num = (i: number, v: number) => (f[i] === undefined || f[i].trim() === "" || !Number.isFinite(v) ? NaN : v);
@@ -64,6 +78,7 @@ export function decodeNmeaSentence(sentence: string): NmeaSentence {
       const fix = quality !== 0;
       return {
         kind: "gga",
+        talker,
         tod: timeOfDay(f[1]),
         lat: fix ? num(2, packet.latitude) : NaN,
         lon: fix ? num(4, packet.longitude) : NaN,
@@ -77,6 +92,7 @@ export function decodeNmeaSentence(sentence: string): NmeaSentence {
       const valid = packet.status === "valid";
       return {
         kind: "rmc",
+        talker,
         tod: timeOfDay(f[1]),
         dateMs: utcMidnight(f[9]),
         valid,

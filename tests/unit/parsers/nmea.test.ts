@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { parseNmea } from "@/lib/parsers/nmea";
 import { ParseError, type ParseSummary } from "@/lib/parsers/types";
 import { byteChunks, collectSamples } from "@/tests/helpers/byte-source";
+import { sentence, xorChecksum } from "@/tests/helpers/nmea";
 
 // Published examples from Dale DePriest, "NMEA data" (gpsinformation.org), quoted from memory;
 // their checksums are verified below by XOR, so a misremembered character would show.
@@ -12,14 +13,6 @@ const GSA = "$GPGSA,A,3,04,05,,09,12,,,24,,,,,2.5,1.3,2.1*39";
 // Cold-start output with no fix and no time, as u-blox receivers print it (quoted from memory).
 const GGA_COLD = "$GPGGA,,,,,,0,00,99.99,,,,,,*48";
 
-/** NMEA 0183 checksum by its definition: XOR of the characters between `$` and `*`. */
-function xorChecksum(body: string): string {
-  let x = 0;
-  for (const ch of body) x ^= ch.charCodeAt(0);
-  return x.toString(16).toUpperCase().padStart(2, "0");
-}
-/** `$` + body + `*` + checksum, for sentences written for these tests. */
-const sentence = (body: string) => `$${body}*${xorChecksum(body)}`;
 
 async function run(text: string, opts: { batchSize?: number; chunk?: number } = {}) {
   const { onBatch, samples } = collectSamples();
@@ -48,23 +41,31 @@ describe("parseNmea", () => {
     expect(s.headingDeg[0]).toBe(84.4);
     expect(s.fixType[0]).toBe(1); // GGA quality 1 = GPS fix
     expect(s.tS[0]).toBe(0);
-    expect(summary.startedAt?.toISOString()).toBe("1994-03-23T12:35:19.000Z");
+    // 23 March 1994 is before 2000: read as a GPS week roll-over symptom, so the run stays undated.
+    expect(summary.startedAt).toBeNull();
     expect(summary.format).toBe("nmea");
+    expect(summary.warnings.map((w) => w.code)).toEqual(["bogus-date"]);
+  });
+
+  it("dates the same pair when its date is after 2000", async () => {
+    const rmc2019 = sentence(RMC.slice(1, -3).replace("230394", "230319"));
+    const { summary } = await run(`${GGA}\r\n${rmc2019}\r\n`);
+    expect(summary.startedAt?.toISOString()).toBe("2019-03-23T12:35:19.000Z");
     expect(summary.warnings).toEqual([]);
   });
 
-  it("counts a corrupted checksum as a warning with its line and keeps parsing", async () => {
+  it("counts a corrupted checksum as skipped junk with its line and keeps parsing", async () => {
     const corrupted = GGA.replace("545.4", "545.5"); // same *47, now wrong
     const nextRmc = sentence(RMC.slice(1, -3).replace("123519", "123520"));
     const { summary, s } = await run([RMC, corrupted, nextRmc].join("\n"));
-    expect(warning(summary, "bad-checksum")).toMatchObject({ line: 2, count: 1 });
+    expect(warning(summary, "skipped-junk")).toMatchObject({ line: 2, count: 1, message: expect.stringContaining("1 sentence with a wrong checksum") });
     expect(summary.sampleCount).toBe(2);
     expect(s.altM).toEqual([NaN, NaN]); // the corrupted GGA contributed nothing
   });
 
-  it("treats a sentence without a checksum as a bad checksum", async () => {
+  it("treats a sentence without a checksum as cut short", async () => {
     const { summary } = await run(`${RMC}\n${GGA.slice(0, -3)}\n`);
-    expect(warning(summary, "bad-checksum")).toMatchObject({ line: 2 });
+    expect(warning(summary, "skipped-junk")).toMatchObject({ line: 2, message: expect.stringContaining("1 sentence cut short") });
   });
 
   it("merges VTG into the sample of the current fix time and converts km/h to m/s", async () => {
@@ -111,9 +112,10 @@ describe("parseNmea", () => {
 
   it("takes the date from a later RMC for earlier GGA-only samples", async () => {
     const gga = sentence("GPGGA,123518,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,");
-    const { summary, s } = await run([gga, GGA, RMC].join("\n"));
+    const rmc2019 = sentence(RMC.slice(1, -3).replace("230394", "230319"));
+    const { summary, s } = await run([gga, GGA, rmc2019].join("\n"));
     expect(s.tS).toEqual([0, 1]);
-    expect(summary.startedAt?.toISOString()).toBe("1994-03-23T12:35:18.000Z");
+    expect(summary.startedAt?.toISOString()).toBe("2019-03-23T12:35:18.000Z");
   });
 
   it("keeps fractional seconds of a 5 Hz log", async () => {
@@ -134,17 +136,23 @@ describe("parseNmea", () => {
     expect(summary.fieldsPresent).not.toContain("lat");
   });
 
-  it("skips GGA/RMC without a time of day (u-blox cold start) with a warning", async () => {
-    const { summary } = await run([GGA_COLD, GGA].join("\n"));
+  it("passes over GGA/RMC without a time or position (u-blox cold start) silently", async () => {
+    const { summary } = await run([GGA_COLD, sentence("GPRMC,,V,,,,,,,,,,N"), GGA].join("\n"));
+    expect(summary.sampleCount).toBe(1);
+    expect(summary.warnings).toEqual([]);
+  });
+
+  it("warns about a GGA that has a position but no time, which cannot be placed", async () => {
+    const { summary } = await run([sentence("GPGGA,,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,"), GGA].join("\n"));
     expect(summary.sampleCount).toBe(1);
     expect(warning(summary, "missing-time")).toMatchObject({ line: 1, count: 1 });
   });
 
-  it("aggregates junk lines and unknown sentence ids as 'unparsed-sentence' and ignores GSA silently", async () => {
+  it("counts junk lines as skipped junk and ignores well-formed sentences it does not use (GSA, unknown ids)", async () => {
     const unknown = sentence("GPXYZ,1,2,3");
     const { summary } = await run(["hello", unknown, GSA, GGA, "", "more junk"].join("\n"));
-    expect(warning(summary, "unparsed-sentence")).toMatchObject({ line: 1, count: 3 });
-    expect(summary.warnings.map((w) => w.code)).toEqual(["unparsed-sentence"]);
+    expect(warning(summary, "skipped-junk")).toMatchObject({ line: 1, count: 2, message: expect.stringContaining("2 lines of non-NMEA text") });
+    expect(summary.warnings.map((w) => w.code)).toEqual(["skipped-junk"]);
   });
 
   it("reads two sentences run together on one line and junk before the $", async () => {

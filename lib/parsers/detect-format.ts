@@ -1,3 +1,4 @@
+import { nmeaChecksumOk } from "./nmea-sentence";
 import { ParseError, type LogFormat } from "./types";
 
 /** How much of the head is looked at; callers pass about the first 64 KB of the file. */
@@ -9,6 +10,10 @@ const MAX_BINARY_SHARE = 0.05;
 
 /** `$GPGGA,` `$GNRMC,` `!AIVDM,` (talker + sentence id) and proprietary `$PUBX,` `$PMTK001,` `$PGRME,`. */
 const NMEA_LINE = /^[$!](?:[A-Z][A-Z0-9][A-Z]{3}|P[A-Z0-9]{3,})[,*]/;
+/** A whole sentence with its checksum anywhere in a line: `$` or `!`, an address, fields, `*hh`. */
+const NMEA_SENTENCE = /[$!](?:[A-Z][A-Z0-9][A-Z]{3}|P[A-Z0-9]{3,}),[^$!*\r\n]*\*[0-9A-Fa-f]{2}/g;
+/** Checksum-valid sentences needed to read a head with binary junk or NUL bytes as NMEA. */
+const MIN_SENTENCES_AMID_JUNK = 3;
 const NMEA_EXTENSIONS = /\.(nmea|nma|gps|ubx|txt|log)$/i;
 const GPX_EXTENSIONS = /\.gpx$/i;
 const DELIMITERS = [",", ";", "\t", "|"];
@@ -17,9 +22,12 @@ const DELIMITERS = [",", ";", "\t", "|"];
  * Decides the format of a log from its first bytes of text; the file name's extension only breaks
  * ties (an NMEA log with many junk lines, an XML file whose root is beyond the head).
  *
- * Rules, in order: XML whose root element is `<gpx>` (any prefix) → "gpx" (XML with another root
- * throws; XML whose root lies beyond the head → "gpx", for the GPX parser to judge); at least half of the
- * sampled non-blank lines are NMEA 0183 sentences (`$` or `!`, a talker and a sentence id) → "nmea"
+ * Rules, in order: binary data (NUL bytes, or more than 5 % control characters) → "nmea" when it
+ * holds at least three checksum-valid NMEA 0183 sentences (a receiver's capture with a cold start's
+ * NUL padding, binary protocol frames or partial lines; the parser skips the junk), else refused;
+ * XML whose root element is `<gpx>` (any prefix) → "gpx" (XML with another root throws; XML whose
+ * root lies beyond the head → "gpx", for the GPX parser to judge); at least half of the sampled
+ * non-blank, non-`#` lines are NMEA 0183 sentences (`$` or `!`, a talker and a sentence id) → "nmea"
  * (a tenth is enough when the extension is .nmea/.txt/.log and similar); any line with at least two
  * fields split by `,` `;` tab or `|` → "csv".
  *
@@ -28,7 +36,7 @@ const DELIMITERS = [",", ";", "\t", "|"];
  * @returns "gpx", "nmea" or "csv"
  * @throws {ParseError} "The file is empty" for empty or whitespace-only input
  * @throws {ParseError} "This does not look like a text log (CSV, GPX or NMEA 0183)" for binary data
- *   (NUL bytes or more than 5 % non-printable characters) or text without delimiters
+ *   (NUL bytes or more than 5 % non-printable characters) without NMEA sentences, or text without delimiters
  * @throws {ParseError} "This is an XML file with a <kml> root element, not GPX; …" for other XML
  * @example
  * detectFormat("$GPGGA,123519,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,*47\r\n"); // => "nmea"
@@ -39,7 +47,11 @@ export function detectFormat(head: string, fileName?: string): LogFormat {
   // A head cut out of a longer file may end inside a multi-byte character.
   text = text.replace(/\uFFFD{1,3}$/, "");
   if (text.trim() === "") throw new ParseError("The file is empty");
-  if (looksBinary(text)) throw notALog();
+  if (looksBinary(text)) {
+    // Neither CSV nor GPX is binary; sentences amid the junk can only be an NMEA capture.
+    if (validSentences(text) >= MIN_SENTENCES_AMID_JUNK) return "nmea";
+    throw notALog();
+  }
 
   const trimmed = text.trimStart();
   if (trimmed.startsWith("<")) {
@@ -63,13 +75,22 @@ export function detectFormat(head: string, fileName?: string): LogFormat {
     .slice(0, SAMPLE_LINES)
     .map((l) => l.trim())
     .filter((l) => l !== "");
+  // Only lines that start with a sentence count: a CSV may carry raw sentences in a column.
   const nmea = sample.filter((l) => NMEA_LINE.test(l)).length;
-  const nmeaShare = nmea / sample.length;
+  // Comment lines (GPSD's capture files open with a "#" header) are neither NMEA nor evidence against it.
+  const nmeaShare = nmea / Math.max(1, sample.filter((l) => !l.startsWith("#")).length);
   if (nmeaShare >= 0.5) return "nmea";
   if (nmea > 0 && nmeaShare >= 0.1 && fileName && NMEA_EXTENSIONS.test(fileName)) return "nmea";
   if (sample.some(hasDelimitedFields)) return "csv";
   if (nmea > 0) return "nmea";
   throw notALog();
+}
+
+/** Number of sentences in `text` whose NMEA 0183 checksum (XOR between `$` and `*`) matches. */
+function validSentences(text: string): number {
+  let n = 0;
+  for (const m of text.matchAll(NMEA_SENTENCE)) if (nmeaChecksumOk(m[0])) n++;
+  return n;
 }
 
 function notALog(): ParseError {

@@ -2,10 +2,14 @@ import { z } from "zod";
 import { columnMapSchema } from "@/lib/parsers/column-map";
 import { idSchema } from "./crew";
 
-/** Browsers report log files under many types; anything else (images, archives…) is refused. */
+/**
+ * Browsers report log files under many types; anything else (images, archives…) is refused.
+ * "text/x-log": freedesktop.org shared-mime-info names `*.log` so (/usr/share/mime/globs2), and
+ * browsers on Linux take a file's type from it — receivers' NMEA captures are often `.log` files.
+ */
 export const acceptedContentTypes = [
   "text/csv", "text/plain", "text/tab-separated-values", "application/csv", "application/vnd.ms-excel",
-  "application/gpx+xml", "application/xml", "text/xml", "application/octet-stream", "text/x-nmea", "",
+  "application/gpx+xml", "application/xml", "text/xml", "application/octet-stream", "text/x-nmea", "text/x-log", "",
 ] as const;
 
 export const uploadCreateSchema = z.object({

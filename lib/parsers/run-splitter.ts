@@ -1,4 +1,5 @@
-import { RC_CHANNELS, sampleFields, type SampleBatch, type SampleField } from "./types";
+import { sliceBatch } from "./batch-slice";
+import type { SampleBatch } from "./types";
 
 /**
  * Cuts one log's batch stream into runs while it streams (DESIGN.md §10 "A file holding several
@@ -53,7 +54,7 @@ export interface RunSplitterOptions {
   gapS: number;
   /** A step between consecutive samples longer than this (s) is the logger switched off. Default 60. */
   silenceS?: number;
-  /** Undecided samples held at most (default 131,072, about 20 MB); beyond, they join the current part. */
+  /** Undecided samples held at most (default 131,072: about 25 MB of batches); beyond, they join the current part. */
   maxHeldSamples?: number;
 }
 
@@ -76,20 +77,6 @@ interface Pending {
 export function partStartedAt(logStartedAt: Date | null, offsetS: number): Date | null {
   if (!logStartedAt || !Number.isFinite(offsetS)) return null;
   return new Date(Math.floor(logStartedAt.getTime() + offsetS * 1000));
-}
-
-/** A view of samples [a, b) of a batch: no copy. */
-export function sliceBatch(b: SampleBatch, a: number, end: number): SampleBatch {
-  const columns = {} as Record<SampleField, Float64Array>;
-  for (const f of sampleFields) columns[f] = b.columns[f].subarray(a, end);
-  return {
-    length: end - a,
-    columns,
-    rc: b.rc ? b.rc.subarray(a * RC_CHANNELS, end * RC_CHANNELS) : null,
-    segmentStart: b.segmentStart.subarray(a, end),
-    trackStart: b.trackStart.subarray(a, end),
-    sourceLine: b.sourceLine.subarray(a, end),
-  };
 }
 
 export class RunSplitter {

@@ -11,6 +11,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { auditLog, ingestJobs, runNotes, runs } from "@/db/schema";
 import { ALERT_ACTION } from "@/lib/alerts/run-alert";
+import { reviveStuckRuns, stuckRunIds, sweepStaleIngestJobs } from "@/lib/jobs/ingest-jobs";
 import { setCrewThresholds } from "@/lib/crews/thresholds";
 import { addNote, setSignOff } from "@/lib/runs/notes";
 import { Client } from "../helpers/http";
@@ -174,6 +175,28 @@ describe("a file holding several runs", () => {
     expect(again.upload.runs[1].id).not.toBe(gpxRuns[1].id);
     gpxRuns = await Promise.all(again.upload.runs.map((r) => view(c, r.id)));
     expect(gpxRuns[1].startedAt).toBe("2026-03-14T12:00:00.000Z");
+    csvRuns = await Promise.all((await view(c, csvRuns[0].id)).upload.runs.map((r) => view(c, r.id)));
+    expect(csvRuns[1].startedAt).toBe("2026-03-14T09:49:30.000Z");
+  });
+
+  it("lets the queue's recovery passes treat a file's runs together: a dead reader's job and a part left waiting", async () => {
+    const [one, two] = csvRuns;
+    // A reader that died mid-read: its claim is stale, both runs show it reading.
+    await db().update(ingestJobs).set({ state: "running", claimedBy: "dead-instance#000000", heartbeatAt: sql`NOW(3) - INTERVAL 1 HOUR` }).where(eq(ingestJobs.runId, one.id));
+    await db().update(runs).set({ status: "parsing" }).where(inArray(runs.id, [one.id, two.id]));
+    expect((await sweepStaleIngestJobs(60, 3, [])).requeued).toBeGreaterThanOrEqual(1);
+    // Picked up by the app's worker; both runs are read again together.
+    await settledRun(c, one.id);
+    expect((await view(c, two.id)).status).toBe("ready");
+
+    // Part 2 alone marked waiting with no open job (a write lost in an outage): its part 1 gets the job.
+    await db().update(runs).set({ status: "queued" }).where(eq(runs.id, two.id));
+    expect(await stuckRunIds()).toContain(one.id);
+    expect(await stuckRunIds()).not.toContain(two.id);
+    await reviveStuckRuns([one.id]);
+    await settledRun(c, one.id);
+    await expect.poll(async () => (await view(c, two.id)).status, { timeout: 25_000 }).toBe("ready");
+    expect(await count("samples", two.id)).toBe(two.sampleCount);
   });
 
   it("exports, shares and reports each part as its own run, and keeps other crews out", async () => {

@@ -4,7 +4,7 @@
  * parser or from how fast anything moves.
  */
 import { describe, expect, it } from "vitest";
-import { RunSplitter, type RunPart, type RunPartStart } from "@/lib/parsers/run-splitter";
+import { partStartedAt, RunSplitter, type RunPart, type RunPartStart } from "@/lib/parsers/run-splitter";
 import { RC_CHANNELS, sampleFields, type SampleBatch, type SampleField } from "@/lib/parsers/types";
 
 const GAP = 1800;
@@ -258,5 +258,14 @@ describe("RunSplitter", () => {
     }
     expect(shapes.size).toBe(1);
     expect(JSON.parse([...shapes][0]).map((p: RunPart) => p.cause)).toEqual(["first", "arming", "track"]);
+  });
+});
+
+describe("partStartedAt", () => {
+  it("adds the part's offset to the log's start, to the millisecond below, and has no start for an undated log", () => {
+    expect(partStartedAt(new Date("2010-01-01T14:48:37.519Z"), 197_335_472.1891578)!.toISOString()).toBe("2016-04-03T14:13:09.708Z");
+    expect(partStartedAt(new Date("2026-03-14T09:00:00.000Z"), -0.0004)!.toISOString()).toBe("2026-03-14T08:59:59.999Z");
+    expect(partStartedAt(null, 10)).toBeNull();
+    expect(partStartedAt(new Date(0), NaN)).toBeNull();
   });
 });

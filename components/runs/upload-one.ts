@@ -1,4 +1,5 @@
 import { apiJson, putWithProgress } from "./put-with-progress";
+import type { UploadRunLink } from "./run-parts";
 
 export interface UploadOptions {
   crewId: number;
@@ -12,7 +13,15 @@ export type UploadPhase =
   | { phase: "waiting" }
   | { phase: "sending"; sent: number }
   | { phase: "parsing"; runId: number; progress: number }
-  | { phase: "done"; runId: number; status: "ready" | "failed"; duplicate: boolean; message?: string }
+  | {
+      phase: "done";
+      runId: number;
+      status: "ready" | "failed";
+      duplicate: boolean;
+      message?: string;
+      /** Every run made from the file (one per part when it held several separate runs). */
+      runs: UploadRunLink[];
+    }
   | { phase: "error"; message: string };
 
 interface CreateAnswer {
@@ -23,7 +32,7 @@ interface CreateAnswer {
 }
 
 interface RunAnswer {
-  run: { status: string; progress: number; error: string | null };
+  run: { status: string; progress: number; error: string | null; upload: { runs: UploadRunLink[] } };
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -59,7 +68,7 @@ export async function uploadOne(file: File, opts: UploadOptions, report: (p: Upl
     for (;;) {
       const { run } = await apiJson<RunAnswer>(`/api/runs/${done.runId}`);
       if (run.status === "ready" || run.status === "failed") {
-        report({ phase: "done", runId: done.runId, status: run.status, duplicate: done.duplicate, message: run.error ?? undefined });
+        report({ phase: "done", runId: done.runId, status: run.status, duplicate: done.duplicate, message: run.error ?? undefined, runs: run.upload.runs });
         return;
       }
       report({ phase: "parsing", runId: done.runId, progress: run.progress });

@@ -35,6 +35,9 @@ export async function listRunsPage(crewId: number, q: RunListQuery) {
       .select({
         id: runs.id,
         title: runs.title,
+        part: runs.part,
+        /** Runs made from the same file (more than 1 when it held several separate runs). */
+        partCount: sql<number>`(SELECT COUNT(*) FROM ${runs} AS p WHERE p.upload_id = ${runs.uploadId})`.mapWith(Number),
         status: runs.status,
         progress: runs.progress,
         verdict: runs.verdict,

@@ -1,4 +1,4 @@
-import { and, desc, eq, isNotNull } from "drizzle-orm";
+import { and, asc, desc, eq, isNotNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { runs, uploads } from "@/db/schema";
 
@@ -17,12 +17,34 @@ export async function getUpload(id: number) {
   return row ?? null;
 }
 
-/** The run made from an earlier upload of the same bytes into the same crew, if any. */
+/**
+ * Every run made from one upload, in part order: one for most files, one per part for a file
+ * holding several separate runs. The caller has checked access to one of them (same crew).
+ */
+export async function listUploadParts(uploadId: number) {
+  return db()
+    .select({
+      id: runs.id,
+      part: runs.part,
+      title: runs.title,
+      status: runs.status,
+      verdict: runs.verdict,
+      durationS: runs.durationS,
+      startedAt: runs.startedAt,
+    })
+    .from(runs)
+    .where(eq(runs.uploadId, uploadId))
+    .orderBy(asc(runs.part));
+}
+
+export type UploadPart = Awaited<ReturnType<typeof listUploadParts>>[number];
+
+/** The run (part 1) made from an earlier upload of the same bytes into the same crew, if any. */
 export async function findRunBySha(crewId: number, sha256: string, exceptUploadId: number) {
   const rows = await db()
     .select({ runId: runs.id, uploadId: uploads.id })
     .from(uploads)
-    .innerJoin(runs, eq(runs.uploadId, uploads.id))
+    .innerJoin(runs, and(eq(runs.uploadId, uploads.id), eq(runs.part, 1)))
     .where(and(eq(uploads.crewId, crewId), eq(uploads.sha256, sha256), isNotNull(uploads.storedAt)))
     .orderBy(desc(runs.id));
   return rows.find((r) => r.uploadId !== exceptUploadId) ?? null;

@@ -29,6 +29,12 @@ export const runs = mysqlTable(
     id: id(),
     crewId: ref().notNull().references(() => crews.id, { onDelete: "cascade" }),
     uploadId: ref().notNull().references(() => uploads.id, { onDelete: "restrict" }),
+    /**
+     * Which run of its upload this is, from 1: a file holding several separate runs (GPX tracks or
+     * armed periods far apart, lib/parsers/run-splitter.ts) gives one run per part. Part 1 is the
+     * run the upload created; its ingest job reads the file for every part.
+     */
+    part: smallint({ unsigned: true }).notNull().default(1),
     buildId: ref().references(() => builds.id, { onDelete: "set null" }),
     routePlanId: ref().references(() => routePlans.id, { onDelete: "set null" }),
     pilotId: ref().references(() => users.id, { onDelete: "set null" }),
@@ -59,8 +65,9 @@ export const runs = mysqlTable(
     index("runs_crew_verdict_idx").on(t.crewId, t.verdict),
     // The queue's reconcile pass looks for runs still marked in progress (lib/jobs/ingest-jobs.ts).
     index("runs_status_idx").on(t.status),
-    // One run per upload: a second "complete" of the same upload can never make another.
-    uniqueIndex("runs_upload_uq").on(t.uploadId),
+    // One run per part of an upload: a second "complete" of the same upload can never make another
+    // part 1, and a re-read updates its parts in place by number.
+    uniqueIndex("runs_upload_part_uq").on(t.uploadId, t.part),
   ],
 );
 

@@ -1,14 +1,11 @@
-import { and, eq, notInArray } from "drizzle-orm";
-import { db } from "@/db/client";
 import { getBuild } from "@/db/queries/builds";
 import { getRun } from "@/db/queries/runs";
-import { runs } from "@/db/schema";
 import { audit } from "@/lib/audit";
 import { requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/roles";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
-import { enqueueIngest } from "@/lib/jobs/enqueue";
+import { queueUploadOfRun } from "@/lib/ingest/queue-upload";
 
 const BUSY = "This run is being read right now; wait for it to finish";
 
@@ -28,12 +25,10 @@ export async function moveRunToBuild(actor: Actor, runId: number, buildId: numbe
     if (build.retiredAt) throw new ValidationError("That build is retired; bring it back first", { fields: { buildId: ["Choose a build in service"] } });
   }
   if (run.buildId === buildId) return { runId, buildId, status: run.status, requeued: false };
-  const [claim] = await db()
-    .update(runs)
-    .set({ buildId, status: "queued", progress: 0, error: null })
-    .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
-  if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(BUSY);
+  // The build change and the re-queue are one locked step; the whole file is read again, every
+  // part with its own build.
+  const queued = await queueUploadOfRun(runId, { setRun: { buildId } });
+  if (!queued) throw new ConflictError(BUSY);
   await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.build-changed", targetType: "run", targetId: runId, detail: { from: run.buildId, to: buildId } });
-  await enqueueIngest(runId);
   return { runId, buildId, status: "queued" as const, requeued: true };
 }

@@ -7,7 +7,7 @@
 import { asc, eq } from "drizzle-orm";
 import type { PoolConnection } from "mysql2/promise";
 import { db, pool } from "@/db/client";
-import { getRun } from "@/db/queries/runs";
+import { getRun, listUploadParts } from "@/db/queries/runs";
 import { events as eventsTable, type Run } from "@/db/schema";
 import { audit } from "@/lib/audit";
 import { requireRecordPermission } from "@/lib/auth/access";
@@ -45,7 +45,9 @@ interface TrackWriter {
 async function exportableRun(actor: Actor, runId: number): Promise<Run> {
   const { record } = await requireRecordPermission(actor, () => getRun(runId), "read", "Run");
   if (record.status !== "ready") throw new ConflictError(record.status === "failed" ? "This run could not be parsed, so there is nothing to export; re-parse it first" : `This run is ${record.status}; it can be exported once it is ready`);
-  return record;
+  // The runs of a file that held several share its title: each part's downloads say which part.
+  const parts = await listUploadParts(record.uploadId);
+  return parts.length > 1 ? { ...record, title: `${record.title} part ${record.part}` } : record;
 }
 
 const bitAt = (bits: Uint8Array, i: number) => i >= 0 && i >> 3 < bits.length && ((bits[i >> 3] >> (i & 7)) & 1) === 1;

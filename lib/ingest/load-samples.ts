@@ -26,9 +26,11 @@ export function loadSamplesSql(withRc: boolean): string {
 /**
  * Streams samples into MariaDB with one LOAD DATA LOCAL INFILE on `conn` (inside the caller's
  * transaction): ~2× the rate of batched INSERTs and no SQL text per row. Returns a sink for
- * the parser and a `finish()` that ends the stream and waits for the statement.
+ * the parser and a `finish()` that ends the stream and waits for the statement. A file holding
+ * several runs loads them one after another on the same connection, passing one `encoder` (its
+ * worker thread is then the caller's to close).
  */
-export function startSampleLoad(conn: PoolConnection, runId: number) {
+export function startSampleLoad(conn: PoolConnection, runId: number, shared?: TsvEncoder) {
   const stream = new PassThrough({ highWaterMark: 4 * 1024 * 1024 });
   let seq = 0;
   // Started with the first batch, which tells whether the log has RC channels (a parser's
@@ -41,7 +43,8 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
     // Keep the rejection observed even if the parser fails first; finish() re-throws it.
     done.catch(() => {});
   };
-  const encoder = new TsvEncoder(runId);
+  const encoder = shared ?? new TsvEncoder(runId);
+  const closeEncoder = () => (shared ? Promise.resolve() : encoder.close());
   // Batches being encoded, oldest first; a few in flight keep both cores busy.
   const inFlight: Promise<Buffer>[] = [];
   const MAX_IN_FLIGHT = 3;
@@ -54,7 +57,7 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
     async write(batch: SampleBatch): Promise<void> {
       if (withRc === null) start(batch.rc !== null);
       else if (withRc !== (batch.rc !== null)) throw new Error("a log's batches must all carry RC channels or none");
-      const p = encoder.encode(seq, batch);
+      const p = encoder.encode(seq, batch, runId);
       p.catch(() => {});
       inFlight.push(p);
       seq += batch.length;
@@ -64,7 +67,7 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
       try {
         while (inFlight.length) await flushOne();
       } finally {
-        await encoder.close();
+        await closeEncoder();
       }
       stream.end();
       return withRc === null ? 0 : done;
@@ -75,7 +78,7 @@ export function startSampleLoad(conn: PoolConnection, runId: number) {
      */
     async abort(): Promise<void> {
       inFlight.length = 0;
-      await encoder.close();
+      await closeEncoder();
       if (!stream.writableEnded) stream.end();
       await done.catch(() => {});
     },

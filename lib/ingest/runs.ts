@@ -1,7 +1,4 @@
-import { and, eq, notInArray } from "drizzle-orm";
-import { db } from "@/db/client";
-import { getRun, getRunWithUpload } from "@/db/queries/runs";
-import { runs } from "@/db/schema";
+import { getRun, getRunWithUpload, listUploadParts } from "@/db/queries/runs";
 import { audit } from "@/lib/audit";
 import { requireRecordPermission } from "@/lib/auth/access";
 import type { Actor } from "@/lib/auth/actor";
@@ -12,7 +9,7 @@ import { sniffCsv } from "@/lib/parsers/csv-sniff";
 import { detectFormat } from "@/lib/parsers/detect-format";
 import { ParseError } from "@/lib/parsers/types";
 import { presignGet, readObject } from "@/lib/storage/objects";
-import { enqueueIngest } from "@/lib/jobs/enqueue";
+import { queueUploadOfRun } from "./queue-upload";
 import { resolveColumnMap } from "./resolve-column-map";
 
 /** The run as the API and the status page show it. */
@@ -21,6 +18,8 @@ const loadRun = (runId: number) => () => getRunWithUpload(runId).then((r) => r &
 export async function viewRun(actor: Actor, runId: number) {
   const { record, access } = await requireRecordPermission(actor, loadRun(runId), "read", "Run");
   const { run, upload } = record;
+  // The other runs of the same file are in the same crew, so the read check above covers them.
+  const parts = await listUploadParts(upload.id);
   return {
     id: run.id,
     /** The caller's role in the run's own crew (not in whichever crew is active). */
@@ -42,7 +41,17 @@ export async function viewRun(actor: Actor, runId: number) {
     routePlanId: run.routePlanId,
     pilotId: run.pilotId,
     createdAt: run.createdAt,
-    upload: { id: upload.id, fileName: upload.fileName, sizeBytes: upload.sizeBytes, sha256: upload.sha256, note: upload.note },
+    /** Which run of its upload this is (1 unless the file held several separate runs). */
+    part: run.part,
+    upload: {
+      id: upload.id,
+      fileName: upload.fileName,
+      sizeBytes: upload.sizeBytes,
+      sha256: upload.sha256,
+      note: upload.note,
+      /** Every run made from the file, in part order (this one included). */
+      runs: parts.map((p) => ({ id: p.id, part: p.part, status: p.status, verdict: p.verdict, durationS: p.durationS, startedAt: p.startedAt })),
+    },
   };
 }
 
@@ -55,19 +64,19 @@ async function requireRunEdit(actor: Actor, runId: number) {
   return record;
 }
 
-/** Parses the stored original again, optionally with another column map; the old samples are replaced atomically. */
+/**
+ * Parses the stored original again, optionally with another column map; the old samples are
+ * replaced atomically. A file holding several runs is read again as a whole: every part is updated.
+ */
 export async function reparseRun(actor: Actor, runId: number, input: { columnMapId?: number; columnMap?: ColumnMap }) {
   const run = await requireRunEdit(actor, runId);
   const busy = "This run is being read right now; wait for it to finish";
   const columnMap = await resolveColumnMap(actor, run.crewId, input);
-  // Conditional, so two re-parse requests cannot both queue the run.
-  const [claim] = await db()
-    .update(runs)
-    .set({ status: "queued", progress: 0, error: null, ...(columnMap ? { columnMap: columnMap as unknown as Record<string, unknown> } : {}) })
-    .where(and(eq(runs.id, runId), notInArray(runs.status, ["queued", "parsing", "analysing"])));
-  if ((claim as unknown as { affectedRows: number }).affectedRows === 0) throw new ConflictError(busy);
+  // Conditional, so two re-parse requests cannot both queue the upload. The column map is the
+  // file's, so every part of it takes the new one.
+  const queued = await queueUploadOfRun(runId, columnMap ? { setAll: { columnMap: columnMap as unknown as Record<string, unknown> } } : {});
+  if (!queued) throw new ConflictError(busy);
   await audit({ crewId: run.crewId, actorId: actor.user.id, action: "run.reparsed", targetType: "run", targetId: runId });
-  await enqueueIngest(runId);
   return { runId, status: "queued" as const };
 }
 

@@ -48,16 +48,19 @@ export class TsvEncoder {
     this.worker = null;
   }
 
-  /** Hands the batch's arrays to the worker (they are transferred, so the batch is unusable afterwards). */
-  encode(firstSeq: number, batch: SampleBatch): Promise<Buffer> {
-    if (!this.worker) return Promise.resolve(batchToTsv(this.runId, firstSeq, batch));
+  /**
+   * Hands copies of the batch's arrays to the worker (the copies are transferred; the batch stays
+   * usable). `runId` defaults to the encoder's: one encoder serves every part of a file.
+   */
+  encode(firstSeq: number, batch: SampleBatch, runId = this.runId): Promise<Buffer> {
+    if (!this.worker) return Promise.resolve(batchToTsv(runId, firstSeq, batch));
     const id = this.nextId++;
     const arrays = batchArrays(batch).map((a) => a.slice(0, batch.length));
     const rc = batch.rc ? batch.rc.slice(0, batch.length * RC_CHANNELS) : null;
     const transfer = [...arrays.map((a) => a.buffer), ...(rc ? [rc.buffer] : [])];
     return new Promise((resolve, reject) => {
       this.pending.set(id, { resolve, reject });
-      this.worker!.postMessage({ id, runId: this.runId, firstSeq, n: batch.length, arrays, kinds: TSV_KINDS, rc, rcChannels: RC_CHANNELS }, transfer);
+      this.worker!.postMessage({ id, runId, firstSeq, n: batch.length, arrays, kinds: TSV_KINDS, rc, rcChannels: RC_CHANNELS }, transfer);
     });
   }
 

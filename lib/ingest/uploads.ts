@@ -79,7 +79,8 @@ async function sha256OfObject(key: string): Promise<string> {
 
 /** The run this upload already has, or the run of an earlier upload of the same bytes in the crew. */
 async function existingResult(uploadId: number, crewId: number, sha256: string | null) {
-  const [own] = await db().select({ id: runs.id, status: runs.status }).from(runs).where(eq(runs.uploadId, uploadId));
+  // Part 1 is the run the upload created; a file holding several runs lists the others with it.
+  const [own] = await db().select({ id: runs.id, status: runs.status }).from(runs).where(and(eq(runs.uploadId, uploadId), eq(runs.part, 1)));
   if (own) return { runId: own.id, status: own.status, duplicate: false };
   const earlier = sha256 ? await findRunBySha(crewId, sha256, uploadId) : null;
   if (!earlier) return null;

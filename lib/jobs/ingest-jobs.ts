@@ -94,12 +94,13 @@ export async function failIngestJob(jobId: number, token: string, error: string)
 export async function releaseIngestClaims(tokens: string[]): Promise<number> {
   if (tokens.length === 0) return 0;
   const list = sql.join(tokens.map((t) => sql`${t}`), sql`, `);
+  // The job's run and every other part of its upload (lib/parsers/run-splitter.ts) wait again.
   const [r] = await db().execute(sql`
-    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
+    UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id JOIN ${runs} p ON p.upload_id = r.upload_id
     SET j.state = 'queued', j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.updated_at = NOW(3),
-        j.attempts = GREATEST(j.attempts - 1, 0), j.last_error = 'shutdown', r.status = 'queued', r.progress = 0
+        j.attempts = GREATEST(j.attempts - 1, 0), j.last_error = 'shutdown', p.status = 'queued', p.progress = 0
     WHERE j.state = 'running' AND j.claimed_by IN (${list})`);
-  return Math.ceil(affected(r) / 2);
+  return affected(r) > 0 ? tokens.length : 0;
 }
 
 /** A passing fault: back in the queue after `delayS`; the claim does not count as an attempt. */
@@ -146,20 +147,22 @@ export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: num
       );
       const job = (rows as { attempts: number }[])[0];
       if (!job) return null;
+      // The job reads its upload for every part: they all wait again, or all fail.
+      const parts = await uploadPartIds(conn, runId);
       if (job.attempts < maxAttempts) {
         await conn.query(
           "UPDATE ingest_jobs SET state = 'queued', claimed_by = NULL, heartbeat_at = NULL, available_at = NOW(3), last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?",
           [runId],
         );
-        await conn.query("UPDATE runs SET status = 'queued', progress = 0 WHERE id = ?", [runId]);
+        await conn.query("UPDATE runs SET status = 'queued', progress = 0 WHERE id IN (?)", [parts]);
         return "requeued" as const;
       }
       await conn.query("UPDATE ingest_jobs SET state = 'failed', last_error = 'stale', updated_at = NOW(3) WHERE run_id = ?", [runId]);
-      await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id = ?", [GAVE_UP(maxAttempts), runId]);
+      await conn.query("UPDATE runs SET status = 'failed', progress = 0, sample_count = 0, error = ? WHERE id IN (?)", [GAVE_UP(maxAttempts), parts]);
       // As after any failure: no samples, events or display levels of an earlier parse stay behind.
-      await conn.query("DELETE FROM samples WHERE run_id = ?", [runId]);
-      await conn.query("DELETE FROM events WHERE run_id = ?", [runId]);
-      await conn.query("DELETE FROM series_levels WHERE run_id = ?", [runId]);
+      await conn.query("DELETE FROM samples WHERE run_id IN (?)", [parts]);
+      await conn.query("DELETE FROM events WHERE run_id IN (?)", [parts]);
+      await conn.query("DELETE FROM series_levels WHERE run_id IN (?)", [parts]);
       return "failed" as const;
     });
     if (outcome === "requeued") requeued++;
@@ -168,14 +171,24 @@ export async function sweepStaleIngestJobs(staleAfterS: number, maxAttempts: num
   return { requeued, failed };
 }
 
+/** Every run of the upload `runId` came from (itself included). */
+async function uploadPartIds(conn: PoolConnection, runId: number): Promise<number[]> {
+  const [rows] = await conn.query("SELECT p.id FROM runs r JOIN runs p ON p.upload_id = r.upload_id WHERE r.id = ?", [runId]);
+  const ids = (rows as { id: number }[]).map((r) => Number(r.id));
+  return ids.length ? ids : [runId];
+}
+
 /**
  * Runs that say they are being read while no job is open for them: a write that failed half-way
  * during an outage, or runs stored before the queue existed. A plain read; the worker revives the
  * ones it finds stuck on two passes in a row (reviveStuckRuns), so an enqueue in flight always wins.
  */
 export async function stuckRunIds(): Promise<number[]> {
+  // The job of a later part of a file is its part 1's (lib/ingest/ingest-run.ts): a stuck later
+  // part names its part 1, which is what gets a job.
   const [rows] = await db().execute(sql`
-    SELECT r.id FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
+    SELECT DISTINCT f.id FROM ${runs} r JOIN ${runs} f ON f.upload_id = r.upload_id AND f.part = 1
+    LEFT JOIN ${ingestJobs} j ON j.run_id = f.id
     WHERE r.status IN ${inProgress} AND (j.id IS NULL OR j.state IN ('done', 'failed'))`);
   return (rows as unknown as { id: number }[]).map((r) => Number(r.id));
 }
@@ -184,14 +197,16 @@ export async function stuckRunIds(): Promise<number[]> {
 export async function reviveStuckRuns(runIds: number[]): Promise<number> {
   if (runIds.length === 0) return 0;
   const ids = sql.join(runIds.map((id) => sql`${id}`), sql`, `);
+  // Still stuck: the run (a part 1) or any other part of its upload marked in progress.
+  const stuck = sql`EXISTS (SELECT 1 FROM ${runs} p WHERE p.upload_id = r.upload_id AND p.status IN ${inProgress})`;
   const [adopted] = await db().execute(sql`
     INSERT IGNORE INTO ${ingestJobs} (run_id, state, attempts, retries, available_at)
     SELECT r.id, 'queued', 0, 0, NOW(3) FROM ${runs} r LEFT JOIN ${ingestJobs} j ON j.run_id = r.id
-    WHERE r.id IN (${ids}) AND j.id IS NULL AND r.status IN ${inProgress}`);
+    WHERE r.id IN (${ids}) AND j.id IS NULL AND ${stuck}`);
   const [revived] = await db().execute(sql`
     UPDATE ${ingestJobs} j JOIN ${runs} r ON r.id = j.run_id
     SET j.state = 'queued', j.attempts = 0, j.retries = 0, j.claimed_by = NULL, j.heartbeat_at = NULL, j.available_at = NOW(3), j.updated_at = NOW(3)
-    WHERE j.run_id IN (${ids}) AND j.state IN ('done', 'failed') AND r.status IN ${inProgress}`);
+    WHERE j.run_id IN (${ids}) AND j.state IN ('done', 'failed') AND ${stuck}`);
   return affected(adopted) + affected(revived);
 }
 

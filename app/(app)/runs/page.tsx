@@ -3,6 +3,7 @@ import Link from "next/link";
 import { listRunsPage, runFilterOptions } from "@/db/queries/run-list";
 import { getUserById } from "@/db/queries/users";
 import { runStatusText } from "@/components/runs/run-status-text";
+import { partOf } from "@/components/runs/run-parts";
 import { RunsLive } from "@/components/runs/runs-live";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -54,7 +55,7 @@ export default async function RunsPage({ searchParams }: { searchParams: Promise
 
   return (
     <>
-      <PageHeader title="Runs" lead="Each uploaded log becomes a run with its debrief.">
+      <PageHeader title="Runs" lead="Each uploaded log becomes a run with its debrief, or several when one file holds several runs.">
         {mayUpload && (
           <Link href="/runs/upload" className="btn-primary">
             Upload logs
@@ -149,6 +150,11 @@ export default async function RunsPage({ searchParams }: { searchParams: Promise
                         <Link href={`/runs/${r.id}`} className="text-tide-700 underline">
                           {r.title}
                         </Link>
+                        {r.partCount > 1 && (
+                          <span className="figures ml-2 inline-block rounded border border-rule px-1.5 text-xs font-normal whitespace-nowrap text-ink-soft" data-testid="run-part">
+                            {partOf(r.part, r.partCount).toLowerCase()}
+                          </span>
+                        )}
                       </td>
                       <td className="figures px-3 py-2 whitespace-nowrap">{when(r.startedAt ?? r.createdAt)}</td>
                       <td className="px-3 py-2">{r.buildName ?? "—"}</td>

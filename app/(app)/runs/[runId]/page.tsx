@@ -14,6 +14,7 @@ import { formatBytes } from "@/components/runs/format-bytes";
 import { PdfLink } from "@/components/runs/pdf-link";
 import { ReparseButton } from "@/components/runs/reparse-button";
 import { RunStatusPoller } from "@/components/runs/run-status-poller";
+import { UploadRunsNav } from "@/components/runs/upload-runs-nav";
 import { runStatusText } from "@/components/runs/run-status-text";
 import { SharePanel } from "@/components/share/share-panel";
 import { FieldModeToggle } from "@/components/ui/field-mode-toggle";
@@ -83,6 +84,7 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
           </p>
           <h1 className="text-2xl font-bold tracking-tight break-words">{run.title}</h1>
           {meta && <p className="mt-1 text-ink-soft">{meta}</p>}
+          <UploadRunsNav part={run.part} fileName={run.upload.fileName} runs={run.upload.runs} />
           {run.upload.note && <p className="mt-1 max-w-prose text-sm">{run.upload.note}</p>}
         </div>
         <div className="flex flex-wrap gap-2">
@@ -90,7 +92,9 @@ export default async function DebriefPage({ params }: { params: Promise<{ runId:
           <a href={`/api/runs/${run.id}/original`} className="btn-quiet">
             Download the original
           </a>
-          {run.mayEdit && run.status !== "queued" && run.status !== "parsing" && run.status !== "analysing" && <ReparseButton runId={run.id} />}
+          {run.mayEdit && run.status !== "queued" && run.status !== "parsing" && run.status !== "analysing" && (
+            <ReparseButton runId={run.id} label={run.upload.runs.length > 1 ? `Re-parse the original (all ${run.upload.runs.length} runs)` : undefined} />
+          )}
         </div>
       </header>
 

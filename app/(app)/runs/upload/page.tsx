@@ -21,7 +21,7 @@ export default async function UploadPage() {
   ]);
   return (
     <>
-      <PageHeader title="Upload logs" lead={`Into ${crew.name}. Pick one or more files; each becomes a run.`} />
+      <PageHeader title="Upload logs" lead={`Into ${crew.name}. Pick one or more files; each becomes a run, or several when one file holds several runs.`} />
       <UploadForm
         crewId={crew.crewId}
         maxBytes={env().UPLOAD_MAX_BYTES}

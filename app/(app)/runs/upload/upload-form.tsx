@@ -4,6 +4,9 @@ import Link from "next/link";
 import { useState } from "react";
 import { formatBytes } from "@/components/runs/format-bytes";
 import { ProgressBar } from "@/components/runs/progress-bar";
+import { partOf, partStart, severalRunsSentence, type UploadRunLink } from "@/components/runs/run-parts";
+import { VerdictBadge } from "@/components/runs/verdict-badge";
+import { formatSpan } from "@/lib/format/units";
 import { uploadOne, type UploadPhase } from "@/components/runs/upload-one";
 
 export interface UploadFormProps {
@@ -132,10 +135,12 @@ function ItemState({ item }: { item: Item }) {
     case "error":
       return <p className="rounded-md bg-act/10 px-3 py-2 text-sm text-act">{s.message}</p>;
     case "done":
+      if (s.status === "ready" && s.runs.length > 1) return <UploadRuns runs={s.runs} duplicate={s.duplicate} />;
       return (
         <div className="flex flex-wrap items-center justify-between gap-3">
-          <p className={s.status === "ready" ? "text-clear" : "text-act"}>
+          <p className={`flex flex-wrap items-center gap-2 ${s.status === "ready" ? "text-clear" : "text-act"}`}>
             {s.duplicate ? "Already uploaded: this is the same file as an earlier run." : s.status === "ready" ? "Ready." : `Could not be read: ${s.message}`}
+            {s.status === "ready" && <VerdictBadge level={s.runs[0]?.verdict} />}
           </p>
           <Link href={`/runs/${s.runId}`} className="btn-quiet">
             Open the run
@@ -143,4 +148,30 @@ function ItemState({ item }: { item: Item }) {
         </div>
       );
   }
+}
+
+/** A file that held several separate runs: one line per run, each with its verdict and its debrief. */
+function UploadRuns({ runs, duplicate }: { runs: UploadRunLink[]; duplicate: boolean }) {
+  return (
+    <div>
+      <p className="text-clear">
+        {duplicate ? "Already uploaded: this is the same file as an earlier upload. " : "Ready. "}
+        {severalRunsSentence(runs.length)}
+      </p>
+      <ul className="mt-2 divide-y divide-rule border-y border-rule" data-testid="upload-runs">
+        {runs.map((r) => (
+          <li key={r.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
+            <span className="font-medium">{partOf(r.part, runs.length)}</span>
+            <span className="figures text-sm text-ink-soft">
+              {[partStart(r.startedAt) ?? "no clock in the log", formatSpan(r.durationS)].join(" · ")}
+            </span>
+            <VerdictBadge level={r.verdict} />
+            <Link href={`/runs/${r.id}`} className="btn-quiet ml-auto" aria-label={`Open part ${r.part} of ${runs.length}`}>
+              Open
+            </Link>
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
 }

@@ -7,16 +7,10 @@
  */
 import fs from "node:fs";
 import path from "node:path";
-import { analyseRun } from "@/lib/analysis/analyse-run";
-import { SeriesCollector } from "@/lib/analysis/series-collector";
-import { defaultThresholds } from "@/lib/analysis/thresholds";
 import type { BuildConfig, RoutePlanInput } from "@/lib/analysis/types";
-import { peek } from "@/lib/ingest/byte-source";
+import { analyseLogFile } from "@/lib/offline/analyse-log-file";
 import { columnMapSchema, type ColumnMap } from "@/lib/parsers/column-map";
-import { detectFormat } from "@/lib/parsers/detect-format";
 import { parseGpxRoutePlan } from "@/lib/parsers/gpx-route-plan";
-import { parseLog } from "@/lib/parsers/parse-log";
-import { partStartedAt, RunSplitter } from "@/lib/parsers/run-splitter";
 import { ParseError } from "@/lib/parsers/types";
 import { buildConfigSchema, routePlanInputSchema } from "@/lib/validations/analysis-input";
 
@@ -69,32 +63,7 @@ async function main() {
   const plan = a.route ? loadPlan(a.route) : undefined;
   const columnMap: ColumnMap | undefined = a.map ? checked(columnMapSchema, readJson(a.map, "column map"), `column map ${path.basename(a.map)}`) : undefined;
 
-  const { head, source } = await peek(fs.createReadStream(a.log!));
-  const format = detectFormat(head, a.log);
-  const thresholds = defaultThresholds(build?.vehicleType ?? "ground");
-  // As the server does: parts are cut while the file streams, each analysed as a run of its own.
-  const collectors: SeriesCollector[] = [];
-  const splitter = new RunSplitter(
-    { startPart: () => void collectors.push(new SeriesCollector()), batch: (_part, b) => collectors[collectors.length - 1].add(b), endPart: () => {} },
-    { gapS: thresholds.runSplitGapS },
-  );
-  const parsed = await parseLog(format, source, { columnMap, onBatch: (b) => splitter.push(b) });
-  const found = await splitter.finish();
-  // A log without samples still gets its (empty) document, as before parts existed.
-  const parts = found.length ? found : [{ part: 1, offsetS: 0, sampleCount: 0 }];
-  if (collectors.length === 0) collectors.push(new SeriesCollector());
-  const docs = parts.map((part, i) => {
-    const result = analyseRun(collectors[i].series(parsed.modeNames), { build, plan, thresholds });
-    return {
-      format,
-      samples: part.sampleCount,
-      startedAt: partStartedAt(parsed.startedAt, part.offsetS),
-      warnings: parsed.warnings,
-      ...(format === "csv" ? { columnMap: parsed.columnMap, unplacedColumns: parsed.unplaced ?? [] } : {}),
-      summary: result.summary,
-      events: result.events,
-    };
-  });
+  const docs = await analyseLogFile(a.log!, { build, plan, columnMap });
   const out = docs.length === 1 ? docs[0] : { runs: docs };
   process.stdout.write(JSON.stringify(out, null, 2) + "\n");
 }

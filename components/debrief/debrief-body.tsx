@@ -31,7 +31,7 @@ export function DebriefBody({ run, summary, dataVersion, events, plan, units, ap
           runId={run.id}
           version={dataVersion}
           apiBase={apiBase}
-          durationS={run.durationS ?? summary.durationS ?? 0}
+          durationS={run.durationS ?? summary.timelineS ?? summary.durationS ?? 0}
           events={events}
           fieldsPresent={summary.fieldsPresent ?? []}
           hasPlan={Boolean(plan) && !bench}

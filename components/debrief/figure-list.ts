@@ -10,6 +10,8 @@ import {
   linkSourceWords,
   MISSION_START_WORDS,
   NOT_ASSESSED_WORDS,
+  NOT_AVAILABLE_WORDS,
+  NO_CREDIBLE_FIT_WORDS,
   type AssessedPart,
 } from "@/lib/analysis/evidence";
 import { formatClock, formatDistance, formatLength, formatSpan, formatSpeed, type Units } from "@/lib/format/units";
@@ -40,7 +42,12 @@ export function notAssessedWhy(summary: RunSummary, part: AssessedPart): string 
  */
 export function summaryFigures(summary: RunSummary, units: Units): Figure[] {
   const bench = summary.bench === true;
-  const figures: Figure[] = [{ label: "Duration", value: formatSpan(summary.durationS) }];
+  const untimed = summary.timing?.usable === false;
+  const figures: Figure[] = [
+    untimed
+      ? { label: "Duration", value: NOT_AVAILABLE_WORDS, sub: summary.timing?.why ?? undefined, tone: "muted" }
+      : { label: "Duration", value: formatSpan(summary.durationS), sub: movingSub(summary) },
+  ];
   if (!bench) figures.push(...trackFigures(summary, units));
   figures.push(linkFigure(summary), failsafeFigure(summary));
   if (!bench) figures.push(...routeFigures(summary, units));
@@ -50,17 +57,28 @@ export function summaryFigures(summary: RunSummary, units: Units): Figure[] {
     figures.push(
       rg?.estimatedRangeM != null
         ? { label: "Range estimate", value: formatDistance(rg.estimatedRangeM, units), sub: `path-loss exponent ${rg.pathLossExponent}${rg.label ? `, ${rg.label}` : ""}` }
-        : // No fit: say so rather than show a blank that could pass for a figure.
-          { label: "Range estimate", value: NOT_ASSESSED_WORDS, sub: rg?.reason, tone: "muted" },
+        : rg?.credible === false
+          ? // A fit exists but explains little: quoting a range from it would mislead.
+            { label: "Range estimate", value: NO_CREDIBLE_FIT_WORDS, sub: rg.notCredibleWhy ?? undefined, tone: "muted" }
+          : // No fit: say so rather than show a blank that could pass for a figure.
+            { label: "Range estimate", value: NOT_ASSESSED_WORDS, sub: rg?.reason, tone: "muted" },
     );
   }
   return figures;
 }
 
+/** "moving 16 h 00 min" when the moving time differs from the duration (pauses, gaps between segments). */
+function movingSub(summary: RunSummary): string | undefined {
+  const moving = summary.track?.movingS;
+  const d = summary.durationS;
+  if (moving == null || d == null || d - moving < 1) return undefined;
+  return `moving ${formatSpan(moving)}`;
+}
+
 function trackFigures(summary: RunSummary, units: Units): Figure[] {
   const home = summary.home;
   return [
-    { label: "Distance travelled", value: formatDistance(summary.distanceM, units), sub: summary.maxSpeedMps != null ? `top speed ${formatSpeed(summary.maxSpeedMps, units)}` : undefined },
+    { label: "Distance travelled", value: formatDistance(summary.distanceM, units), sub: distanceSub(summary, units) },
     {
       label: "Farthest from home",
       value: formatDistance(summary.maxDistanceFromHomeM, units),
@@ -160,4 +178,14 @@ function powerFigures(summary: RunSummary): Figure[] {
   // Without a pack in the log there is nothing to add up either.
   if (!(why && p?.capacityUsedMah == null)) out.push({ label: "Capacity used", value: p?.capacityUsedMah != null ? `${p.capacityUsedMah.toLocaleString("en")} mAh` : "—" });
   return out;
+}
+
+/** Top speed, and the fixes left out of the distance when there were any. */
+function distanceSub(summary: RunSummary, units: Units): string | undefined {
+  const parts: string[] = [];
+  if (summary.maxSpeedMps != null) parts.push(`top speed ${formatSpeed(summary.maxSpeedMps, units)}`);
+  if (summary.timing?.usable === false) parts.push("measured along the points; no speeds without times");
+  const stale = summary.track?.staleFixes ?? 0;
+  if (stale > 0) parts.push(`${stale} ${stale === 1 ? "fix" : "fixes"} from before a long pause left out`);
+  return parts.length ? parts.join(" · ") : undefined;
 }

@@ -16,6 +16,11 @@ export function RangeSection(props: { runId: number; version: string; apiBase?: 
         falls 20 dB per decade as in free space. Where the fit meets the threshold (receiver sensitivity plus the fade margin) is
         the estimate{range?.estimatedRangeM != null ? `: ${formatDistance(range.estimatedRangeM, units)}` : ""}.
       </p>
+      {range?.credible === false && (
+        <p className="mt-2 max-w-prose text-sm font-medium" data-testid="range-not-credible">
+          No credible fit, so no range is quoted: {range.notCredibleWhy}. The dots still show what the link did at each distance.
+        </p>
+      )}
       <div className="mt-3">
         <RangeChart
           runId={props.runId}

@@ -6,7 +6,12 @@ import type { StoredVerdict } from "./verdict-words";
  * analysed before a field existed do not have it, so every newer field is optional.
  */
 export interface RunSummary {
+  /** Null when the log's times cannot pace it (see `timing`). */
   durationS?: number | null;
+  /** Extent of the sample clock, s: the charts' axis even when the times are not usable. */
+  timelineS?: number | null;
+  timing?: { usable: boolean; why: string | null };
+  track?: { movingS: number | null; meanSpeedMps: number | null; jumpBoundMps: number | null; jumpBoundFrom: string; staleFixes: number };
   distanceM?: number | null;
   maxDistanceFromHomeM?: number | null;
   maxSpeedMps?: number | null;
@@ -45,7 +50,7 @@ export interface RunSummary {
     waypointsNotReached: string[];
   } | null;
   power?: { cells: number | null; cellsFrom: string | null; minCellV: number | null; sagV: number | null; capacityUsedMah: number | null };
-  range?: { estimatedRangeM: number | null; pathLossExponent: number | null; r2?: number | null; label?: string; reason?: string; p0Dbm?: number; thresholdDbm?: number; freeSpaceRangeM?: number | null; farthestM?: number | null };
+  range?: { estimatedRangeM: number | null; pathLossExponent: number | null; r2?: number | null; credible?: boolean; notCredibleWhy?: string | null; label?: string; reason?: string; p0Dbm?: number; thresholdDbm?: number; freeSpaceRangeM?: number | null; farthestM?: number | null };
   gps?: { fixLostS: number | null; hdopWarnS: number | null; maxHdop: number | null };
   verdict?: StoredVerdict;
 }

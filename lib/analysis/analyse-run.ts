@@ -17,6 +17,26 @@ export interface AnalyseRunOptions {
   plan?: RoutePlanInput;
   /** Defaults for the build's vehicle type when absent. */
   thresholds?: Thresholds;
+  /** False when the parser found the log's times unusable (`timesUsable(warnings)`): time figures are not given. Default true. */
+  timesUsable?: boolean;
+}
+
+/** Why a run has no time figures when its times cannot pace it. */
+export const NO_TIMES_WHY = "the log's times cannot pace it (none, too few, or one placeholder on every point)";
+
+/**
+ * The run's duration, s: the span of its sample times from `from` on (max − min, so a log whose
+ * times step backwards is never negative); 0 for an empty run.
+ */
+export function runDuration(tS: ArrayLike<number>, from = 0): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = from; i < tS.length; i++) {
+    const t = tS[i];
+    if (t < lo) lo = t;
+    if (t > hi) hi = t;
+  }
+  return hi >= lo ? hi - lo : 0;
 }
 
 /** |x| of the finite values, sorted ascending, in a typed array (no boxed copies of a million values). */
@@ -39,7 +59,8 @@ const round = (v: number | null | undefined, digits = 2) => (v == null || !Numbe
  */
 export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
   const th = opts.thresholds ?? defaultThresholds(opts.build?.vehicleType ?? "ground");
-  const track = analyseTrack(series, th);
+  const timed = opts.timesUsable ?? true;
+  const track = analyseTrack(series, th, { timesUsable: timed });
   const fromHome = track.distanceFromHomeM;
   // DESIGN.md §10 "Bench failsafe test": no usable fix → analysed for link and failsafe only.
   const bench = track.usableFixes === 0;
@@ -107,13 +128,24 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
   const p95 = sorted.length ? quantileSorted(sorted as unknown as number[], 0.95) : null;
 
   const summary = {
-    durationS: series.n ? round(series.tS[series.n - 1] - series.tS[0], 3) : 0,
+    // Null without a usable clock: the figure is "not available", not zero.
+    durationS: timed ? round(runDuration(series.tS, track.firstIndex), 3) : null,
+    // The extent of the sample clock (for an untimed log, the sample numbering): the charts' x axis.
+    timelineS: round(runDuration(series.tS), 3),
     distanceM: round(track.distanceM, 1),
     maxDistanceFromHomeM: round(track.maxDistanceFromHomeM, 1),
-    maxSpeedMps: round(track.maxSpeedMps),
+    maxSpeedMps: timed ? round(track.maxSpeedMps) : null,
     bench,
     home,
-    gps: { fixLostS: round(track.fixLostS), hdopWarnS: round(track.hdopWarnS), maxHdop: round(track.maxHdop) },
+    timing: { usable: timed, why: timed ? null : NO_TIMES_WHY },
+    track: {
+      movingS: timed ? round(track.movingS, 1) : null,
+      meanSpeedMps: timed ? round(track.meanSpeedMps) : null,
+      jumpBoundMps: timed ? round(track.jumpBound.mps, 1) : null,
+      jumpBoundFrom: track.jumpBound.from,
+      staleFixes: track.staleFixes,
+    },
+    gps: { fixLostS: timed ? round(track.fixLostS) : null, hdopWarnS: timed ? round(track.hdopWarnS) : null, maxHdop: round(track.maxHdop) },
     link: {
       metric: link.summary.metric,
       unit: link.summary.unit,
@@ -164,7 +196,10 @@ export function analyseRun(series: RunSeries, opts: AnalyseRunOptions = {}) {
       ? {
           pathLossExponent: round(range.estimate.pathLossExponent),
           r2: round(range.estimate.r2, 3),
-          estimatedRangeM: round(range.estimate.estimatedRangeM, 0),
+          // A fit that is not credible keeps its line for the range view but quotes no range.
+          credible: range.estimate.credible,
+          notCredibleWhy: range.estimate.notCredibleWhy,
+          estimatedRangeM: range.estimate.credible ? round(range.estimate.estimatedRangeM, 0) : null,
           marginAtFarthestDb: round(range.estimate.marginAtFarthestDb, 1),
           farthestM: round(range.estimate.farthestM, 0),
           samples: range.estimate.samples,

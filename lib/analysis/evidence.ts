@@ -27,6 +27,10 @@ export const PART_WORDS: Record<AssessedPart, string> = {
 
 /** The word a figure shows in place of a value for a part the log could not show. */
 export const NOT_ASSESSED_WORDS = "Not assessed";
+/** The word a time figure shows when the log's times cannot pace it. */
+export const NOT_AVAILABLE_WORDS = "Not available";
+/** The word the range figure shows when its fit is too poor to quote. */
+export const NO_CREDIBLE_FIT_WORDS = "No credible fit";
 
 /** "Not assessed: failsafe — no link loss in this run to exercise it". */
 export function notAssessedWords(n: NotAssessed): string {

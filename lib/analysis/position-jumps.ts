@@ -6,6 +6,8 @@ import { geodesicDistance, makeLocalProjection, type LocalProjection } from "./g
 
 /** A track moving further than this from its plane's anchor gets a new anchor (plane error ≈ 0.014 % at 60° latitude). */
 export const REANCHOR_M = 1000;
+/** A track is back from an excursion only when the last good fix is nearer than this share of the jump away. */
+export const RETURN_SHARE = 0.5;
 /** A jump not followed by a jump back within this time is taken as a lasting offset, not an excursion. */
 export const MAX_EXCURSION_S = 10;
 
@@ -44,11 +46,14 @@ interface Excursion {
   last: number;
   peak: number;
   jumpM: number;
+  /** Fast steps inside it, not credited unless it proves a lasting move of an untimed track. */
+  fast: { i: number; m: number; s: number }[];
 }
 
 /**
  * Walks the good fixes in order and measures each step in a local plane (re-anchored at each
- * segment start and every {@link REANCHOR_M}), never across a segment start. A step whose implied
+ * segment start and every {@link REANCHOR_M}), never across a segment start or a pause longer
+ * than `gapS` (the run-split gap: a recording that resumes days later is not a step). A step whose implied
  * speed exceeds `jumpSpeedMps` is re-measured with a geodesic and, if still too fast, is a jump:
  * its distance is not credited. When a later jump brings the track back to where a plausible
  * speed from the last good fix could reach (within {@link MAX_EXCURSION_S}), the fixes in between
@@ -62,7 +67,10 @@ interface Excursion {
  * @param lon longitude, degrees
  * @param segmentStart 1 where a new segment starts
  * @param good 1 at a good fix (e.g. `classifyFixes(...) === FIX_GOOD`)
- * @param jumpSpeedMps implied speed above which a step is a jump, m/s
+ * @param jumpSpeedMps implied speed above which a step is a jump, m/s (see jumpBound)
+ * @param gapS a step over a longer pause is not a step (s); default: none
+ * @param timed false for a track numbered one second per sample: only out-and-back excursions are
+ *   jumps, and a fast step that does not come back is a sparse point, credited
  * @returns per-sample steps, outliers and jumps in time order
  * @throws {RangeError} when `jumpSpeedMps` is not a positive number
  * @example
@@ -76,6 +84,8 @@ export function trackSteps(
   segmentStart: ArrayLike<number>,
   good: ArrayLike<number>,
   jumpSpeedMps: number,
+  gapS = Infinity,
+  timed = true,
 ): TrackSteps {
   if (!(jumpSpeedMps > 0)) throw new RangeError(`trackSteps needs a positive jumpSpeedMps, got ${jumpSpeedMps}`);
   const n = good.length;
@@ -91,7 +101,9 @@ export function trackSteps(
   let exc: Excursion | null = null;
 
   const closeLasting = () => {
-    if (exc) jumps.push({ fromIndex: exc.from, toIndex: exc.to, endIndex: exc.last, peakMps: exc.peak, jumpM: exc.jumpM, returned: false });
+    if (exc && timed) jumps.push({ fromIndex: exc.from, toIndex: exc.to, endIndex: exc.last, peakMps: exc.peak, jumpM: exc.jumpM, returned: false });
+    // Without a clock a long step is only a sparse point: the track went there, so it counts.
+    else if (exc) for (const f of exc.fast) (stepM[f.i] = f.m), (stepS[f.i] = f.s);
     exc = null;
   };
 
@@ -109,6 +121,14 @@ export function trackSteps(
       continue;
     }
     const dt = tS[i] - tS[prev];
+    if (dt > gapS) {
+      // A pause longer than a run gap is a break in the recording, never bridged like a segment start.
+      closeLasting();
+      proj = makeLocalProjection(lat[i], lon[i]);
+      px = py = 0;
+      prev = i;
+      continue;
+    }
     if (!(dt > 0)) {
       untimedFixes++;
       continue;
@@ -121,13 +141,15 @@ export function trackSteps(
       stepM[i] = d;
       stepS[i] = dt;
     } else if (!exc) {
-      exc = { from: prev, to: i, last: i, peak: v, jumpM: d };
+      exc = { from: prev, to: i, last: i, peak: v, jumpM: d, fast: [{ i, m: d, s: dt }] };
     } else {
+      exc.fast.push({ i, m: d, s: dt });
       exc.peak = Math.max(exc.peak, v);
       exc.last = i;
       const a = exc.from;
       const back = geodesicDistance(lat[a], lon[a], lat[i], lon[i]);
-      if (back / (tS[i] - tS[a]) <= jumpSpeedMps) {
+      // Back means back: within reach of the last good fix, and nearer it than half the jump away.
+      if (back / (tS[i] - tS[a]) <= jumpSpeedMps && back < RETURN_SHARE * exc.jumpM) {
         for (let j = exc.to; j < i; j++) {
           if (good[j] === 1) outlier[j] = 1;
           stepM[j] = stepS[j] = NaN;

@@ -5,6 +5,17 @@ import { linearFit } from "./linear-fit";
 export const RANGE_MIN_SAMPLES = 20;
 /** Farthest / nearest usable distance must reach this: a slope in log10(d) needs a spread of d. */
 export const RANGE_MIN_DISTANCE_RATIO = 2;
+/**
+ * Below this R² the distance explains too little of the signal for its line to be quoted as a
+ * range (our choice: half the variance; a one-run hobby log over open ground fits ≈ 0.6–0.9).
+ */
+export const RANGE_MIN_R2 = 0.5;
+/**
+ * Path-loss exponents a real link shows: Rappaport, Wireless Communications, 2nd ed., Table 4.2
+ * lists 1.6 (in-building line of sight) to 6 (obstructed in building); outside this a fitted n
+ * says the data are not log-distance (from memory of the table).
+ */
+export const PLAUSIBLE_EXPONENT = { min: 1.5, max: 6 } as const;
 /** Shown with every estimate (DESIGN.md §5). */
 export const RANGE_LABEL = "estimate from one run, not a promise" as const;
 
@@ -42,7 +53,20 @@ export interface RangeEstimate {
   estimatedRangeM: number | null;
   /** Free-space (n = 2) reference through the same P0; null without bandMhz. */
   freeSpace: { lossAtFarthestDb: number; rangeM: number } | null;
+  /** False when R² is under RANGE_MIN_R2 or n is outside PLAUSIBLE_EXPONENT: the line is shown, no range is quoted. */
+  credible: boolean;
+  /** Why the fit is not credible; null when it is. */
+  notCredibleWhy: string | null;
   label: typeof RANGE_LABEL;
+}
+
+/** Why a fit with this R² and exponent should not be quoted as a range; null when it may be. */
+export function fitDoubt(r2: number, n: number): string | null {
+  if (!(r2 >= RANGE_MIN_R2))
+    return `distance explains only ${Math.round(Math.max(0, r2) * 100)} % of the signal's variation (R² ${r2.toFixed(2)}, need ${RANGE_MIN_R2}): the signal here is set by something other than distance`;
+  if (!(n >= PLAUSIBLE_EXPONENT.min && n <= PLAUSIBLE_EXPONENT.max))
+    return `the fitted path-loss exponent ${n.toFixed(2)} is outside the ${PLAUSIBLE_EXPONENT.min}–${PLAUSIBLE_EXPONENT.max} real links show`;
+  return null;
 }
 
 /** Either an estimate, or null with the reason it was refused. */
@@ -69,6 +93,8 @@ export type RangeEstimateResult = { estimate: RangeEstimate; reason: null } | { 
  * L_fs(f, d) − L_fs(f, 1 m) = 20·log10(d) — so rangeM = 10^((P0 − threshold) / 20) and the band
  * cancels out of it. It shows what the same P0 would reach at n = 2, not a second estimate.
  *
+ * A fit is returned but marked not credible (see fitDoubt) when R² < RANGE_MIN_R2 or n is outside
+ * PLAUSIBLE_EXPONENT: the debrief then shows the data and the line and quotes no range.
  * Refuses (estimate null, reason set) below RANGE_MIN_SAMPLES usable samples or a distance spread
  * under RANGE_MIN_DISTANCE_RATIO.
  *
@@ -137,6 +163,7 @@ export function estimateRange(
       ? null
       : { lossAtFarthestDb: freeSpaceLossDb(bandMhz, farthestM), rangeM: 10 ** ((p0Dbm - thresholdDbm) / 20) };
 
+  const doubt = fitDoubt(fit.r2, n);
   return {
     estimate: {
       pathLossExponent: n,
@@ -149,6 +176,8 @@ export function estimateRange(
       marginAtFarthestDb,
       estimatedRangeM,
       freeSpace,
+      credible: doubt === null,
+      notCredibleWhy: doubt,
       label: RANGE_LABEL,
     },
     reason: null,

@@ -6,6 +6,7 @@ import type { HomeSource } from "./evidence";
 import { geodesicDistance, makeLocalProjection } from "./geodesy";
 import { classifyFixes, FIX_BAD, FIX_GOOD, fixLostSpans } from "./gps-fix";
 import { placeHome } from "./home";
+import { jumpBound, type JumpBound } from "./jump-bound";
 import { trackSteps } from "./position-jumps";
 import type { AnalysisEvent, RunSeries, Thresholds } from "./types";
 
@@ -13,6 +14,17 @@ import type { AnalysisEvent, RunSeries, Thresholds } from "./types";
 export const NEAR_HOME_M = 2000;
 /** Speeds from steps are taken over windows of at least this length, s, so GPS noise at 10 Hz does not read as speed. */
 export const SPEED_WINDOW_S = 1;
+
+/** Fixes before a long pause at the start of a run are a stale position when they are at most this share of the fixes… */
+export const STALE_MAX_SHARE = 0.05;
+/** …and the run resumes at least this far from them (m): a receiver reporting where its last session ended. */
+export const STALE_MIN_M = 1000;
+
+/** Options of analyseTrack. */
+export interface TrackOptions {
+  /** False when the log's times cannot pace it (the parser said "no-times"): no time figures. Default true. */
+  timesUsable?: boolean;
+}
 
 /** A sample's place on the run. */
 export interface TrackPoint {
@@ -29,8 +41,16 @@ export interface TrackResult {
   homeSource: HomeSource | null;
   /** First armed sample, -1 when the log never shows the vehicle armed. */
   armedIndex: number;
-  /** Sum of credited steps between consecutive good fixes from home on, m (none across a segment start or a jump). */
+  /** Sum of credited steps between consecutive good fixes from home on, m (none across a segment start, a long pause or a jump). */
   distanceM: number;
+  /** Time of the credited steps, s (the time spent moving between fixes, pauses and gaps left out). */
+  movingS: number;
+  /** First sample of the run proper: fixes before it are a stale position (see staleLead); 0 when none. */
+  firstIndex: number;
+  /** Good fixes set aside as a stale position before the run. */
+  staleFixes: number;
+  /** The jump bound used and what set it. */
+  jumpBound: JumpBound;
   /** Largest geodesic distance from home, m; null without a fix. */
   maxDistanceFromHomeM: number | null;
   farthest: TrackPoint | null;
@@ -80,12 +100,18 @@ const orNull = (v: number) => (Number.isFinite(v) ? v : null);
  * t.distanceM; // => 1234.5 (m)
  * t.events.filter((e) => e.kind === "fix-lost").length; // => 1
  */
-export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
+export function analyseTrack(series: RunSeries, th: Thresholds, opts: TrackOptions = {}): TrackResult {
   const { n, tS, lat, lon, hdop, speedMps, segmentStart } = series;
+  const timed = opts.timesUsable ?? true;
   const classes = classifyFixes(series, th.minSats);
   const good = new Uint8Array(n);
   for (let i = 0; i < n; i++) good[i] = classes[i] === FIX_GOOD ? 1 : 0;
-  const steps = trackSteps(tS, lat, lon, segmentStart, good, th.jumpSpeedMps);
+  const firstIndex = timed ? staleLead(tS, lat, lon, good, th.runSplitGapS) : 0;
+  let staleFixes = 0;
+  for (let i = 0; i < firstIndex; i++) if (good[i]) (staleFixes++, (good[i] = 0));
+  // Untimed samples are numbered one second apart: the bound then reads in metres per sample.
+  const bound = jumpBound(tS, lat, lon, segmentStart, good, speedMps, th.jumpSpeedMps, th.runSplitGapS);
+  const steps = trackSteps(tS, lat, lon, segmentStart, good, bound.mps, timed ? th.runSplitGapS : Infinity, timed);
 
   const usableFix = new Uint8Array(n);
   const distanceFromHomeM = new Float64Array(n).fill(NaN);
@@ -184,7 +210,7 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
       lon: lon[j.fromIndex],
       distanceFromHomeM: dAt(j.fromIndex),
       peak: j.peakMps,
-      threshold: th.jumpSpeedMps,
+      threshold: bound.mps,
       detail: {
         durationS: tS[j.endIndex] - tS[j.toIndex],
         unit: "m/s",
@@ -203,6 +229,10 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
     homeSource: placed.source,
     armedIndex: placed.armedIndex,
     distanceM,
+    movingS: stepTimeS,
+    firstIndex,
+    staleFixes,
+    jumpBound: bound,
     maxDistanceFromHomeM,
     farthest: far >= 0 ? point(series, far) : null,
     maxSpeedMps: speedSource === "log" ? logMax : speedSource === "steps" ? maxStepMps : null,
@@ -216,4 +246,29 @@ export function analyseTrack(series: RunSeries, th: Thresholds): TrackResult {
     usableFix,
     events,
   };
+}
+
+/**
+ * Where the run proper starts: a receiver often reports the position where its last session ended
+ * for a few fixes, dated then, before a fresh fix (common practice). Those fixes are a lead of at
+ * most {@link STALE_MAX_SHARE} of the good fixes, followed by a pause longer than `gapS` and a move
+ * of at least {@link STALE_MIN_M}; the latest such break wins. Pure, O(n).
+ * @returns the first sample after the stale lead, 0 when there is none
+ * @example
+ * // tracks.gpx track 2: three fixes in 2003, then 12,495 km away in 2005 → the fourth fix
+ * staleLead(tS, lat, lon, good, 1800); // => 3
+ */
+export function staleLead(tS: ArrayLike<number>, lat: ArrayLike<number>, lon: ArrayLike<number>, good: ArrayLike<number>, gapS: number): number {
+  let total = 0;
+  for (let i = 0; i < good.length; i++) if (good[i] === 1) total++;
+  let cut = 0;
+  let before = 0;
+  let prev = -1;
+  for (let i = 0; i < good.length && before <= STALE_MAX_SHARE * total; i++) {
+    if (good[i] !== 1) continue;
+    if (prev >= 0 && tS[i] - tS[prev] > gapS && geodesicDistance(lat[prev], lon[prev], lat[i], lon[i]) >= STALE_MIN_M) cut = i;
+    before++;
+    prev = i;
+  }
+  return cut;
 }

@@ -1,4 +1,5 @@
 import { eq } from "drizzle-orm";
+import { timesUsable } from "@/lib/parsers/warnings";
 import type { MySql2Database } from "drizzle-orm/mysql2";
 import type { PoolConnection } from "mysql2/promise";
 import type { schema } from "@/db/client";
@@ -59,7 +60,7 @@ export interface StorePartContext {
 export async function storePart(ctx: StorePartContext, p: LoadedPart): Promise<void> {
   const { tx, parsed } = ctx;
   const series = p.collector.series(parsed.modeNames);
-  const analysis = analyseRun(series, ctx.inputs);
+  const analysis = analyseRun(series, { ...ctx.inputs, timesUsable: timesUsable(ctx.warnings) });
   for (let i = 0; i < analysis.events.length; i += 500) {
     await tx.insert(events).values(analysis.events.slice(i, i + 500).map((e) => eventRow(p.runId, e)));
   }

@@ -5,6 +5,13 @@ import { TimeReader } from "./csv-time";
 import { ParseError, RC_CHANNELS, type SampleField } from "./types";
 import { WarningLog } from "./warnings";
 
+/**
+ * RSSI a receiver can report, dBm: below −150 dBm is under any hobby receiver's noise floor
+ * (thermal noise is −174 dBm/Hz, ≈ −123 dBm over 125 kHz), above +30 dBm would burn its input.
+ * A value outside is a logging artefact (common practice; bounds our choice).
+ */
+export const RSSI_DBM_RANGE = { min: -150, max: 30 } as const;
+
 const TIME_EXPECTED = "seconds, milliseconds, ISO 8601 or hh:mm:ss";
 /** A mode column with more distinct texts than this is not a mode column. */
 const MAX_MODES = 1000;
@@ -201,7 +208,12 @@ export class CsvRowReader {
       if (kind === Kind.Rc) this.storeRc(s, n, line, i);
       else if (kind === Kind.Lat || kind === Kind.Lon) cols[s.target][i] = n; // presence after the position check
       else {
-        cols[s.target][i] = convert(kind, n, s.unit);
+        const v = convert(kind, n, s.unit);
+        if (s.target === "rssiDbm" && !(v >= RSSI_DBM_RANGE.min && v <= RSSI_DBM_RANGE.max)) {
+          this.warnings.add("out-of-range", `Expected an RSSI between ${RSSI_DBM_RANGE.min} and +${RSSI_DBM_RANGE.max} dBm, found ${text}; the value is dropped`, line, s.header);
+          continue;
+        }
+        cols[s.target][i] = v;
         b.markPresent(s.target);
       }
     }

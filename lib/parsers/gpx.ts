@@ -4,7 +4,7 @@ import { childElements, childText, parseGpxTime, pointCoordinates, readGpxDocume
 import { readPointFields } from "./gpx-point";
 import { readAllText } from "./read-text";
 import { ParseError, sampleFields, type BatchSink, type ByteSource, type ParseSummary } from "./types";
-import { WarningLog } from "./warnings";
+import { NO_TIMES, WarningLog } from "./warnings";
 
 export { parseGpxRoutePlan, type GpxRoutePlan } from "./gpx-route-plan";
 
@@ -32,7 +32,9 @@ export interface GpxParseOptions {
  * every <trk> after the first also gets `trackStart = 1` (a new recording). `tS` is seconds since
  * the first time in the log (fractional seconds and zone offsets kept). A point without <time>
  * keeps its position and takes the previous sample's `tS` (never interpolated; warning
- * "missing-time"); when no point has a time, `tS` is the sample index in seconds ("no-times").
+ * "missing-time"). When the times are not usable (see {@link judgeTiming}: none, fewer than half
+ * the points, or one placeholder stamp on all), `tS` is the sample index in seconds, the run has
+ * no start time, and one "no-times" warning says why: the analysis then gives no time figures.
  * Times that go backwards are kept ("time-backwards"). Points with missing or out-of-range lat/lon
  * are skipped ("out-of-range"). Per point: <ele> → altM (m), <sat> → sats, <hdop> → hdop,
  * <fix> → fixType (see GPX_FIX_TYPES), GPX 1.0 <speed> (m/s) → speedMps, <course> (°) → headingDeg.
@@ -55,8 +57,8 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
   const warnings = new WarningLog();
   const { root, ns } = readGpxDocument(text, warnings);
   const segments = pointSegments(root, ns, opts.fallbackToRoute ?? false);
-  const timeOf = (p: Element) => parseGpxTime(childText(p, "time", ns));
-  const hasTimes = segments.some((seg) => seg.points.some((p) => pointCoordinates(p) !== null && !Number.isNaN(timeOf(p))));
+  const timing = judgeTiming(segments, ns);
+  const hasTimes = timing.usable;
 
   const b = new BatchBuilder(false, opts.batchSize ?? DEFAULT_BATCH_SIZE);
   let pointNo = 0;
@@ -76,7 +78,7 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
       }
       const timeText = childText(p, "time", ns);
       const ms = parseGpxTime(timeText);
-      if (timeText && Number.isNaN(ms)) {
+      if (timeText && Number.isNaN(ms) && hasTimes) {
         warnings.add("bad-value", `Some <time> values are not ISO 8601 times and were treated as missing (first: point ${pointNo}, ${JSON.stringify(timeText.slice(0, 40))})`, p.lineNumber, "time");
       }
       let tS: number;
@@ -104,7 +106,7 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
   if (count === 0) {
     throw new ParseError("The GPX file contains no track points with valid coordinates", undefined, undefined, "lat within ±90 and lon within ±180");
   }
-  if (!hasTimes) warnings.add("no-times", "The track has no timestamps; samples are spaced one second apart");
+  if (!hasTimes) warnings.add(NO_TIMES, timing.why);
   const last = b.take();
   if (last) await opts.onBatch(last);
   return {
@@ -116,6 +118,35 @@ export async function parseGpx(source: ByteSource, opts: GpxParseOptions): Promi
     fieldsPresent: sampleFields.filter((f) => b.present.has(f)),
     hasRc: false,
   };
+}
+
+/** Share of points that must carry a time for the times to date and pace the track. */
+export const MIN_TIMED_SHARE = 0.5;
+
+/**
+ * Whether a track's times can pace it: at least {@link MIN_TIMED_SHARE} of the points with valid
+ * coordinates carry a time, and those times are not one placeholder stamped on every point (with
+ * three or more timed points, the median step between consecutive ones is above zero). A track whose four timed points of
+ * 588 are out of order, or whose every point says 1901-12-13T20:45:52Z, has geometry but no clock.
+ */
+export function judgeTiming(segments: PointSegment[], ns: string | null): { usable: boolean; why: string } {
+  let points = 0;
+  const times: number[] = [];
+  for (const seg of segments)
+    for (const p of seg.points) {
+      if (!pointCoordinates(p)) continue;
+      points++;
+      const ms = parseGpxTime(childText(p, "time", ns));
+      if (!Number.isNaN(ms)) times.push(ms);
+    }
+  const spaced = "time-based figures are not available; samples are numbered one second apart";
+  if (times.length === 0) return { usable: false, why: `The track has no timestamps: ${spaced}` };
+  if (times.length < MIN_TIMED_SHARE * points)
+    return { usable: false, why: `Only ${times.length} of ${points} points have a time: ${spaced}` };
+  const steps = times.slice(1).map((t, i) => Math.abs(t - times[i])).sort((a, b) => a - b);
+  if (times.length >= 3 && steps[Math.floor(steps.length / 2)] === 0)
+    return { usable: false, why: `The points carry one placeholder time (${new Date(Math.floor(times[0])).toISOString()}), not a clock: ${spaced}` };
+  return { usable: true, why: "" };
 }
 
 /** One point list to read: a <trkseg> (or a route / the waypoint list), and whether it opens a <trk>. */

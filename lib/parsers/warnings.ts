@@ -1,5 +1,13 @@
 import type { ParseWarning } from "./types";
 
+/** The warning a parser gives when the log's times cannot pace it: the analysis then reports no time figures. */
+export const NO_TIMES = "no-times";
+
+/** False when a parser said the log's times are not usable (see {@link NO_TIMES}). */
+export function timesUsable(warnings: readonly { code: string }[] | null | undefined): boolean {
+  return !(warnings ?? []).some((w) => w.code === NO_TIMES);
+}
+
 /** Aggregates repeated warnings (same code and column) into one entry with a count and the first line. */
 export class WarningLog {
   private byKey = new Map<string, ParseWarning>();

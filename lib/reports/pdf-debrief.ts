@@ -508,7 +508,7 @@ export function renderDebriefPdf(input: DebriefReportInput): Promise<Buffer> {
 
   function drawCharts() {
     const s = input.series;
-    const duration = run.durationS ?? summary.durationS ?? s?.to ?? 0;
+    const duration = run.durationS ?? summary.timelineS ?? summary.durationS ?? s?.to ?? 0;
     const link = summary.link;
     const judged = link ? linkChart(link, summary.fieldsPresent ?? []) : null;
     const len = lengthConversion(units);

@@ -3,6 +3,7 @@
  * headers, one consistent read of the stored levels, and a rebuild for runs stored before
  * levels existed.
  */
+import { timesUsable } from "@/lib/parsers/warnings";
 import { analyseRun } from "@/lib/analysis/analyse-run";
 import { loadAnalysisInputs } from "@/lib/ingest/analysis-inputs";
 import { pool } from "@/db/client";
@@ -67,7 +68,7 @@ function rebuildLevels(run: Run): Promise<{ source: BlobSource; loaded: LoadedMe
     .catch(() => {})
     .then(async () => {
       const series = await loadStoredSeries(pool(), run.id, run.modeNames ?? []);
-      const analysis = analyseRun(series, await loadAnalysisInputs(run));
+      const analysis = analyseRun(series, { ...(await loadAnalysisInputs(run)), timesUsable: timesUsable(run.warnings) });
       const blobs: SeriesBlob[] = [...seriesBlobs(series, analysis.perSample)];
       const source = memoryBlobSource(blobs);
       const loaded = await loadMeta(source);

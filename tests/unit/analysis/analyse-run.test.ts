@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { analyseRun, assessmentGaps } from "@/lib/analysis/analyse-run";
+import { analyseRun, assessmentGaps, NO_TIMES_WHY, runDuration } from "@/lib/analysis/analyse-run";
 import type { BuildConfig } from "@/lib/analysis/types";
 import { makeSeries, rcColumn } from "@/tests/helpers/series";
 import { toLatLon, walk } from "./geo-path";
@@ -109,5 +109,28 @@ describe("assessmentGaps", () => {
     expect(assessmentGaps({ ...base, bench: true }).map((g) => g.what)).toEqual(["route", "gps"]);
     expect(assessmentGaps({ ...base, failsafeResult: "not-assessed", failsafeWhy: "x" })).toEqual([{ what: "failsafe", why: "x" }]);
     expect(assessmentGaps({ ...base, bench: true, benchLoss: true }).map((g) => g.what)).toEqual(["link", "route", "gps"]);
+  });
+});
+
+describe("runDuration and untimed runs", () => {
+  it("is never negative: a clock that steps back gives the span of its times", () => {
+    expect(runDuration([0, 10, -11_925, 5])).toBe(11_935);
+    expect(runDuration([5, 5, 5])).toBe(0);
+    expect(runDuration([])).toBe(0);
+    expect(runDuration([100, 0, 50, 60], 2)).toBe(10);
+  });
+
+  it("gives an untimed run its distance and map but no time figures", () => {
+    const p = walk([[0, 0], [100, 0]], 5, 1);
+    const { lat, lon } = toLatLon(p.e, p.n);
+    const s = makeSeries(lat.length, { lat, lon, sats: () => 10, fixType: () => 3, hdop: () => 0.8 }, { hz: 1 });
+    const { summary } = analyseRun(s, { timesUsable: false });
+    expect(summary.durationS).toBeNull();
+    expect(summary.maxSpeedMps).toBeNull();
+    expect(summary.track.movingS).toBeNull();
+    expect(summary.timing).toEqual({ usable: false, why: NO_TIMES_WHY });
+    expect(summary.distanceM).toBeCloseTo(100, 0);
+    expect(summary.timelineS).toBe(lat.length - 1);
+    expect(summary.home).not.toBeNull();
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { freeSpaceLossDb } from "@/lib/analysis/free-space-loss";
 import { linearFit } from "@/lib/analysis/linear-fit";
-import { RANGE_LABEL, RANGE_MIN_SAMPLES, estimateRange, pathLossExponentFixedReference } from "@/lib/analysis/range";
+import { fitDoubt, PLAUSIBLE_EXPONENT, RANGE_LABEL, RANGE_MIN_R2, RANGE_MIN_SAMPLES, estimateRange, pathLossExponentFixedReference } from "@/lib/analysis/range";
 
 /*
  * Synthetic runs: OUR OWN data, generated here from a known P0 and n with deterministic noise
@@ -176,5 +176,27 @@ describe("pathLossExponentFixedReference", () => {
     expect(() => pathLossExponentFixedReference([100, 100], [0, -1], 100, 0)).toThrow(/away from d0M/);
     expect(() => pathLossExponentFixedReference([100], [0, 1], 100, 0)).toThrow(/equal length/);
     expect(() => pathLossExponentFixedReference(BOOK_D, BOOK_P, 0, 0)).toThrow(/positive d0M/);
+  });
+});
+
+describe("fitDoubt: when a fit is not quoted as a range", () => {
+  it(`accepts R² ≥ ${RANGE_MIN_R2} with n inside Rappaport Table 4.2's 1.6–6 (from memory; bounds ${PLAUSIBLE_EXPONENT.min}–${PLAUSIBLE_EXPONENT.max})`, () => {
+    expect(fitDoubt(0.9, 2)).toBeNull();
+    expect(fitDoubt(RANGE_MIN_R2, PLAUSIBLE_EXPONENT.max)).toBeNull();
+  });
+
+  it("refuses a fit that explains little of the signal, and an exponent no real link shows", () => {
+    expect(fitDoubt(0.04, 0.6)).toMatch(/explains only 4 % .*R² 0\.04, need 0\.5/);
+    expect(fitDoubt(0.8, 0.7)).toMatch(/exponent 0\.70 is outside the 1\.5–6/);
+    expect(fitDoubt(0.8, 9)).toMatch(/exponent 9\.00/);
+  });
+
+  it("marks a noisy run's estimate not credible, keeping the line for the range view", () => {
+    const { rssi, d } = syntheticRun({ p0: -40, n: 3, sigmaDb: 40, count: 400, fromM: 20, toM: 60, seed: 7 });
+    const e = estimateRange(rssi, d, OPTS).estimate!;
+    expect(e.r2).toBeLessThan(RANGE_MIN_R2);
+    expect(e.credible).toBe(false);
+    expect(e.notCredibleWhy).toMatch(/R²/);
+    expect(e.pathLossExponent).not.toBeNaN();
   });
 });

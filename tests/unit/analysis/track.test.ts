@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { geodesicDistance } from "@/lib/analysis/geodesy";
 import { defaultThresholds } from "@/lib/analysis/thresholds";
-import { analyseTrack } from "@/lib/analysis/track";
+import { analyseTrack, STALE_MAX_SHARE, staleLead } from "@/lib/analysis/track";
 import { frozenCopy, makeSeries } from "@/tests/helpers/series";
 import { offset, toLatLon, walk } from "./geo-path";
 
@@ -188,5 +188,49 @@ describe("analyseTrack", () => {
     const r = analyseTrack(s, th);
     expect(analyseTrack(frozenCopy(s), th)).toEqual(r);
     expect(JSON.stringify(Array.from(s.lat))).toBe(before);
+  });
+});
+
+describe("staleLead: a receiver's stored position from an earlier session", () => {
+  // Three fixes 12,000 km away, two years before the run (as a real logger's file does): set aside.
+  const lead = 3;
+  const far = { lat: 25.06, lon: 121.64 };
+  function withLead(n = lead, gapS = 2 * 365 * 86_400) {
+    const { lat, lon } = toLatLon(path.e, path.n);
+    const L = lat.length + n;
+    return makeSeries(L, {
+      tS: (i) => (i < n ? i : gapS + i / 10),
+      lat: (i) => (i < n ? far.lat : lat[i - n]),
+      lon: (i) => (i < n ? far.lon : lon[i - n]),
+      sats: () => 10,
+      fixType: () => 3,
+      hdop: () => 0.9,
+    });
+  }
+
+  it("sets the lead aside: home, distance and farthest are the run's own", () => {
+    const s = withLead();
+    const r = analyseTrack(s, th);
+    expect(r.firstIndex).toBe(lead);
+    expect(r.staleFixes).toBe(lead);
+    expect(r.home!.index).toBe(lead);
+    expect(r.distanceM).toBeCloseTo(300, 1);
+    expect(r.maxDistanceFromHomeM).toBeCloseTo(Math.hypot(150, 150), 1);
+    expect(r.events.filter((e) => e.kind === "position-jump")).toEqual([]);
+  });
+
+  it(`keeps a lead larger than ${STALE_MAX_SHARE * 100} % of the fixes, or one without the long pause`, () => {
+    const good = (s: ReturnType<typeof withLead>) => Uint8Array.from({ length: s.n }, () => 1);
+    const big = withLead(Math.ceil(N * STALE_MAX_SHARE) + 40);
+    expect(staleLead(big.tS, big.lat, big.lon, good(big), th.runSplitGapS)).toBe(0);
+    const short = withLead(lead, 600); // ten minutes: within one run
+    expect(staleLead(short.tS, short.lat, short.lon, good(short), th.runSplitGapS)).toBe(0);
+  });
+
+  it("measures an untimed track by its geometry and gives no speeds", () => {
+    const s = drive();
+    const r = analyseTrack(s, th, { timesUsable: false });
+    expect(r.distanceM).toBeCloseTo(300, 1);
+    expect(r.staleFixes).toBe(0);
   });
 });

@@ -173,3 +173,24 @@ describe("summaryFigures", () => {
     expect(frozen).toEqual(bench);
   });
 });
+
+describe("figures of a log whose times cannot pace it, and of a fit too poor to quote", () => {
+  const base: RunSummary = { ...bench, bench: false, home: { lat: 46.43, lon: 13.75, tS: 0, source: "first-good-fix", sats: null, hdop: null } };
+
+  it("says the duration is not available, and why, rather than 0 s", () => {
+    const figs = summaryFigures({ ...base, durationS: null, maxSpeedMps: null, distanceM: 2700.9, timing: { usable: false, why: "the log's times cannot pace it" } }, "metric");
+    expect(lines(fig(figs, "Duration"))).toBe("Not available | the log's times cannot pace it");
+    expect(lines(fig(figs, "Distance travelled"))).toMatch(/^2\.70 km \| measured along the points; no speeds without times$/);
+  });
+
+  it("gives the moving time beside a duration with pauses, and counts stale fixes left out", () => {
+    const figs = summaryFigures({ ...base, durationS: 105_508, track: { movingS: 57_618, meanSpeedMps: 27.6, jumpBoundMps: 98, jumpBoundFrom: "log-steps", staleFixes: 3 } }, "metric");
+    expect(lines(fig(figs, "Duration"))).toBe("29 h 18 min | moving 16 h 00 min");
+    expect(lines(fig(figs, "Distance travelled"))).toContain("3 fixes from before a long pause left out");
+  });
+
+  it("shows 'No credible fit' with the reason instead of a range", () => {
+    const range = { pathLossExponent: 2.52, r2: 0.26, credible: false, notCredibleWhy: "distance explains only 26 % of the signal's variation (R² 0.26, need 0.5)", estimatedRangeM: null };
+    expect(lines(fig(summaryFigures({ ...base, range }, "metric"), "Range estimate"))).toBe(`No credible fit | ${range.notCredibleWhy}`);
+  });
+});

@@ -240,6 +240,14 @@ describe("parseCsv", () => {
     expect(summary.warnings.find((w) => w.code === "out-of-range" && w.column === "lon")).toMatchObject({ line: 4, count: 1 });
   });
 
+  it("drops an RSSI no receiver can report (under −150 or over +30 dBm) with a warning", async () => {
+    // A real sea LoRa dataset logs −255 and −226 dBm in two rows (../shared/reference/real/radio):
+    // artefacts, far under the −174 dBm/Hz thermal floor of any receiver bandwidth.
+    const { summary, s } = await run("time,rssi_dbm\n0,-80\n1,-255\n2,-226\n3,-150\n4,31\n");
+    expect(s.rssiDbm.map((v) => (Number.isNaN(v) ? null : v))).toEqual([-80, null, null, -150, null]);
+    expect(summary.warnings.find((w) => w.code === "out-of-range" && w.column === "rssi_dbm")).toMatchObject({ line: 3, count: 3 });
+  });
+
   it("keeps rows whose time goes backwards or repeats, with warnings", async () => {
     const { summary, s } = await run("time,v\n0,1\n1,1\n0.5,1\n0.5,1\n2,1\n");
     expect(s.tS).toEqual([0, 1, 0.5, 0.5, 2]);

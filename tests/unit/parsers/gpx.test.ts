@@ -49,10 +49,14 @@ function independent(xml: string) {
     }
   }
   const timed = points.filter((p) => !Number.isNaN(p.time));
-  const t0 = timed[0]?.time ?? NaN;
+  // The documented rule for usable times: at least half the points timed, and (with 3 or more)
+  // not one placeholder stamp — the median step between timed points above zero.
+  const steps = timed.slice(1).map((p, i) => Math.abs(p.time - timed[i].time)).sort((a, b) => a - b);
+  const usable = timed.length >= points.length / 2 && !(timed.length >= 3 && steps[Math.floor(steps.length / 2)] === 0);
+  const t0 = usable ? (timed[0]?.time ?? NaN) : NaN;
   let prev = 0;
-  const tS = points.map((p) => (Number.isNaN(p.time) ? prev : (prev = (p.time - t0) / 1000)));
-  return { points, segments, timed: timed.length, t0, tS, withEle: points.filter((p) => p.ele).length };
+  const tS = points.map((p, i) => (!usable ? i : Number.isNaN(p.time) ? prev : (prev = (p.time - t0) / 1000)));
+  return { points, segments, timed: timed.length, usable, t0, tS, withEle: points.filter((p) => p.ele).length };
 }
 
 // Each reference file with the repository whose test suite it comes from (see SOURCES.md there).
@@ -88,13 +92,13 @@ describe("parseGpx", () => {
     expect(s.lat[0]).toBe(ref.points[0].lat);
     expect(s.lon[0]).toBe(ref.points[0].lon);
     expect(s.lat.at(-1)).toBe(ref.points.at(-1)!.lat);
-    expect(summary.startedAt?.getTime()).toBe(ref.t0);
+    expect(summary.startedAt?.getTime() ?? NaN).toBe(ref.t0);
     s.tS.forEach((t, i) => expect(t).toBeCloseTo(ref.tS[i], 6));
     expect(s.altM.filter((v) => !Number.isNaN(v)).length).toBe(ref.withEle);
     expect(samples.sourceLine).toEqual(ref.points.map((_, i) => i + 1));
-    const missing = ref.points.length - ref.timed;
+    const missing = ref.usable ? ref.points.length - ref.timed : 0;
     expect(warning(summary, "missing-time")?.count).toBe(missing === 0 ? undefined : missing);
-    expect(warning(summary, "no-times")).toBeUndefined();
+    expect(warning(summary, "no-times") !== undefined).toBe(!ref.usable);
   });
 
   it("keeps fractional seconds and a +01:00 offset (gpxpy track-with-less-sec-time.gpx)", async () => {
@@ -148,7 +152,23 @@ describe("parseGpx", () => {
     expect(summary.sampleCount).toBe(55);
     expect(s.tS.slice(0, 3)).toEqual([0, 1, 2]);
     expect(summary.startedAt).toBeNull();
-    expect(warning(summary, "no-times")?.message).toBe("The track has no timestamps; samples are spaced one second apart");
+    expect(warning(summary, "no-times")?.message).toBe("The track has no timestamps: time-based figures are not available; samples are numbered one second apart");
+  });
+
+  it("treats a placeholder time on every point, or times on under half the points, as no clock (our own small tracks)", async () => {
+    const pt = (i: number, time?: string) => `<trkpt lat="46.${4300 + i}" lon="13.7482">${time ? `<time>${time}</time>` : ""}</trkpt>`;
+    const gpx = (pts: string[]) => `<?xml version="1.0"?><gpx version="1.1" creator="t" xmlns="http://www.topografix.com/GPX/1/1"><trk><trkseg>${pts.join("")}</trkseg></trk></gpx>`;
+    const placeholder = await run(gpx([0, 1, 2, 3].map((i) => pt(i, "1901-12-13T20:45:52.2073437Z"))));
+    expect(placeholder.s.tS).toEqual([0, 1, 2, 3]);
+    expect(placeholder.summary.startedAt).toBeNull();
+    expect(warning(placeholder.summary, "no-times")?.message).toMatch(/^The points carry one placeholder time \(1901-12-13T20:45:52\.207Z\)/);
+    const few = await run(gpx([pt(0, "2016-11-21T12:18:50Z"), pt(1), pt(2), pt(3, "2016-11-08T10:00:00Z"), pt(4), pt(5)]));
+    expect(few.s.tS).toEqual([0, 1, 2, 3, 4, 5]);
+    expect(warning(few.summary, "no-times")?.message).toMatch(/^Only 2 of 6 points have a time/);
+    expect(warning(few.summary, "time-backwards")).toBeUndefined();
+    const half = await run(gpx([pt(0, "2016-11-21T12:00:00Z"), pt(1), pt(2, "2016-11-21T12:00:02Z"), pt(3)]));
+    expect(half.s.tS).toEqual([0, 0, 2, 2]);
+    expect(warning(half.summary, "no-times")).toBeUndefined();
   });
 
   it("rejects a track whose only segment is empty (togeojson empty_trk.gpx)", async () => {
@@ -184,7 +204,7 @@ describe("parseGpx", () => {
     const { summary, s } = await run(`<gpx><trk><trkseg>${pts}</trkseg></trk></gpx>`);
     expect(s.tS).toEqual([0, 1, 2]);
     expect(summary.startedAt).toBeNull();
-    expect(warning(summary, "no-times")?.message).toBe("The track has no timestamps; samples are spaced one second apart");
+    expect(warning(summary, "no-times")?.message).toBe("The track has no timestamps: time-based figures are not available; samples are numbered one second apart");
   });
 
   it("keeps a point whose time goes backwards and warns once per occurrence", async () => {

@@ -54,15 +54,16 @@ describe.skipIf(!present)(`every real recording through the upload page${absent}
       await page.getByRole("button", { name: "Upload" }).click();
       const items = page.locator("li.panel");
       await items.first().waitFor();
-      // Uploaded one after another; poll until each card says how it ended (generous: a busy 2-core machine).
-      const deadline = Date.now() + 900_000;
-      let texts: string[] = [];
-      for (;;) {
-        texts = await items.allTextContents();
-        if (texts.length === files.length && texts.every((t) => FINISHED.test(t))) break;
-        if (Date.now() > deadline) throw new Error(`uploads not finished: ${texts.filter((t) => !FINISHED.test(t)).join(" / ")}`);
-        await page.waitForTimeout(1000);
-      }
+      // Uploaded one after another; wait until each card says how it ended (generous: a busy 2-core machine).
+      await page.waitForFunction(
+        ({ count, finished }) => {
+          const cards = [...document.querySelectorAll("li.panel")];
+          return cards.length === count && cards.every((c) => new RegExp(finished, "i").test(c.textContent ?? ""));
+        },
+        { count: files.length, finished: FINISHED.source },
+        { timeout: 900_000, polling: 1000 },
+      );
+      const texts = await items.allTextContents();
       const refused = texts.filter((t) => !/Ready\.|Already uploaded/.test(t));
       expect(refused).toEqual([]);
       await page.screenshot({ path: screenshotPath("real-uploads"), fullPage: true });
